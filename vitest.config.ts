@@ -1,0 +1,17 @@
+import { defineConfig } from 'vitest/config';
+import path from 'node:path';
+
+export default defineConfig({
+  resolve: {
+    alias: {
+      '@shared': path.resolve(__dirname, 'shared'),
+      '@': path.resolve(__dirname, 'src'),
+    },
+  },
+  test: {
+    include: ['shared/**/*.test.ts', 'server/**/*.test.ts', 'tests/**/*.test.ts', 'scripts/**/*.test.ts'],
+    testTimeout: 60_000,
+    hookTimeout: 120_000,
+    pool: 'forks',
+  },
+});
