@@ -9,7 +9,7 @@ export default defineConfig({
     },
   },
   test: {
-    include: ['shared/**/*.test.ts', 'server/**/*.test.ts', 'tests/**/*.test.ts', 'scripts/**/*.test.ts'],
+    include: ['shared/**/*.test.ts', 'server/**/*.test.ts', 'tests/**/*.test.ts', 'scripts/**/*.test.ts', 'src/**/*.test.{ts,tsx}'],
     testTimeout: 60_000,
     hookTimeout: 120_000,
     pool: 'forks',

@@ -1,0 +1,112 @@
+import { stat } from 'node:fs/promises';
+import path from 'node:path';
+import sharp from 'sharp';
+import type { GreyImage, PixelRect } from '../../shared/measure/types';
+import type { FrameSource, ReducedFrame } from '../../shared/measure/engine/frame-source';
+import { FrameMissingError, FrameUnreadableError } from '../../shared/measure/engine/measurement-error';
+
+// libvips keeps decoded images in an operation cache by default; frames are
+// read once each, so the cache only costs memory.
+sharp.cache(false);
+
+/** Longest side of the reduced copy used to find the target. */
+const REDUCED_LONG_SIDE_PX = 640;
+
+export interface DecodedRaw {
+  image: GreyImage;
+}
+
+/**
+ * Luminance at full precision: 16-bit files stay 16-bit (grey16 + ushort;
+ * `greyscale()` alone would scale them to 0–255), colour is reduced to
+ * luminance, alpha is dropped.
+ */
+async function toGreyImage(pipeline: sharp.Sharp, sixteenBit: boolean): Promise<GreyImage> {
+  const grey = sixteenBit ? pipeline.toColourspace('grey16') : pipeline.greyscale();
+  const { data, info } = await grey.removeAlpha().raw(sixteenBit ? { depth: 'ushort' } : {}).toBuffer({ resolveWithObject: true });
+  const pixels = info.width * info.height;
+  const out = new Float32Array(pixels);
+  const channels = info.channels;
+  if (sixteenBit) {
+    const words = new Uint16Array(data.buffer, data.byteOffset, data.length / 2);
+    for (let i = 0, j = 0; i < pixels; i++, j += channels) out[i] = words[j];
+  } else {
+    for (let i = 0, j = 0; i < pixels; i++, j += channels) out[i] = data[j];
+  }
+  return { width: info.width, height: info.height, data: out, maxValue: sixteenBit ? 65535 : 255 };
+}
+
+function isSixteenBit(depth: string | undefined): boolean {
+  return depth === 'ushort' || depth === 'short' || depth === 'uint' || depth === 'int';
+}
+
+/** Frames read from files in a measurement folder with sharp. */
+export class SharpFrameSource implements FrameSource {
+  private readonly headers = new Map<string, { width: number; height: number; sixteenBit: boolean }>();
+
+  constructor(private readonly folder: string) {}
+
+  resolve(file: string): string {
+    return path.join(this.folder, file);
+  }
+
+  private async header(file: string) {
+    const cached = this.headers.get(file);
+    if (cached) return cached;
+    const full = this.resolve(file);
+    try {
+      await stat(full);
+    } catch {
+      throw new FrameMissingError(file);
+    }
+    try {
+      const meta = await sharp(full).metadata();
+      if (!meta.width || !meta.height) throw new Error('no image dimensions');
+      const header = { width: meta.width, height: meta.height, sixteenBit: isSixteenBit(meta.depth) };
+      this.headers.set(file, header);
+      return header;
+    } catch (error) {
+      throw new FrameUnreadableError(file, describe(error));
+    }
+  }
+
+  async readReduced(file: string): Promise<ReducedFrame> {
+    const header = await this.header(file);
+    const factor = Math.max(1, Math.ceil(Math.max(header.width, header.height) / REDUCED_LONG_SIDE_PX));
+    const width = Math.max(1, Math.floor(header.width / factor));
+    const height = Math.max(1, Math.floor(header.height / factor));
+    try {
+      let pipeline = sharp(this.resolve(file));
+      if (factor > 1) pipeline = pipeline.resize({ width, height, fit: 'fill', kernel: 'linear' });
+      const image = await toGreyImage(pipeline, header.sixteenBit);
+      return { image, factor: header.width / image.width, fullWidth: header.width, fullHeight: header.height };
+    } catch (error) {
+      throw new FrameUnreadableError(file, describe(error));
+    }
+  }
+
+  async readRegion(file: string, rect: PixelRect): Promise<GreyImage> {
+    const header = await this.header(file);
+    try {
+      const pipeline = sharp(this.resolve(file)).extract({ left: rect.x, top: rect.y, width: rect.width, height: rect.height });
+      return await toGreyImage(pipeline, header.sixteenBit);
+    } catch (error) {
+      throw new FrameUnreadableError(file, describe(error));
+    }
+  }
+
+  /** Whole frame at full resolution (used by the benchmark's decode-only baseline and thumbnails). */
+  async readFull(file: string): Promise<GreyImage> {
+    const header = await this.header(file);
+    try {
+      return await toGreyImage(sharp(this.resolve(file)), header.sixteenBit);
+    } catch (error) {
+      throw new FrameUnreadableError(file, describe(error));
+    }
+  }
+}
+
+function describe(error: unknown): string {
+  const message = error instanceof Error ? error.message : String(error);
+  return message.split('\n')[0].replace(/^Input file /, '').trim() || 'unknown decoder error';
+}

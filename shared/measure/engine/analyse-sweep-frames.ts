@@ -1,0 +1,257 @@
+import type { FocusOperator, GreyImage, PixelRect, TargetPattern, TargetPolarity } from '../types';
+import type { FrameAnalysis, FrameOverlay, FrameRejectionReason } from '../../schemas/measurement-result';
+import { detectTarget, type TargetDetection } from '../target/detect-target';
+import { measureDotPair } from '../target/measure-dot-pair';
+import { measureSquare } from '../target/measure-square';
+import { focusMeasures } from '../focus/focus-measure';
+import { saturatedFraction, regionMean } from '../image/statistics';
+import { slantedEdgeMtf, squareEdgeRects } from '../mtf/slanted-edge-mtf';
+import { FrameMissingError, FrameUnreadableError, MeasurementError } from './measurement-error';
+import type { FrameSource, ReducedFrame } from './frame-source';
+import { mapWithConcurrency } from './map-with-concurrency';
+
+export interface SweepFrameInput {
+  file: string;
+  positionMm: number;
+}
+
+export interface AnalyseSweepFramesOptions {
+  frames: SweepFrameInput[];
+  source: FrameSource;
+  pattern: TargetPattern;
+  polarity?: TargetPolarity;
+  focusOperator: FocusOperator;
+  excludedFiles: Set<string>;
+  /** Share of clipped pixels in the region above which a frame is rejected. */
+  saturatedShareLimit: number;
+  concurrency: number;
+  onFrameDone: (file: string) => void;
+}
+
+export interface SweepFramesResult {
+  frames: FrameAnalysis[];
+  polarity: TargetPolarity;
+  regionSidePx: number;
+}
+
+interface Located {
+  detection: TargetDetection | null;
+  reason?: FrameRejectionReason;
+  detail?: string;
+  factor: number;
+  fullWidth: number;
+  fullHeight: number;
+}
+
+/** Reads a frame through the source, turning decode failures into a rejection and a missing file into a user error. */
+async function readOrReject<T>(file: string, read: () => Promise<T>): Promise<T | { rejected: string }> {
+  try {
+    return await read();
+  } catch (error) {
+    if (error instanceof FrameMissingError) {
+      throw new MeasurementError('missing-file', `frame file not found: ${file}`);
+    }
+    if (error instanceof FrameUnreadableError) return { rejected: error.message };
+    throw error;
+  }
+}
+
+function isRejected<T>(value: T | { rejected: string }): value is { rejected: string } {
+  return typeof value === 'object' && value !== null && 'rejected' in value;
+}
+
+/**
+ * Pass 1 (reduced copies): find the target on every frame and choose one
+ * region size for the sweep, large enough for the widest blur.
+ * Pass 2 (full resolution): in that region, per frame, the clipped share,
+ * focus measures, target size and (square target) slanted-edge MTF50.
+ * Frames are read with bounded concurrency and never all held at once.
+ */
+export async function analyseSweepFrames(options: AnalyseSweepFramesOptions): Promise<SweepFramesResult> {
+  const { frames, source, pattern } = options;
+
+  const located: Located[] = await mapWithConcurrency(frames, options.concurrency, async (frame) => {
+    if (options.excludedFiles.has(frame.file)) {
+      return { detection: null, reason: 'excluded', factor: 1, fullWidth: 0, fullHeight: 0 } satisfies Located;
+    }
+    const reduced = await readOrReject<ReducedFrame>(frame.file, () => source.readReduced(frame.file));
+    if (isRejected(reduced)) {
+      return { detection: null, reason: 'undecodable', detail: reduced.rejected, factor: 1, fullWidth: 0, fullHeight: 0 } satisfies Located;
+    }
+    const detection = detectTarget(reduced.image, { pattern, polarity: options.polarity });
+    const base = { factor: reduced.factor, fullWidth: reduced.fullWidth, fullHeight: reduced.fullHeight };
+    if (!detection) return { ...base, detection: null, reason: 'target-lost' } satisfies Located;
+    return { ...base, detection: scaleDetection(detection, reduced.factor) } satisfies Located;
+  });
+
+  const found = located.filter((l) => l.detection !== null);
+  if (found.length === 0) {
+    const decodable = located.some((l) => l.reason === 'target-lost');
+    throw new MeasurementError(
+      decodable ? 'target-not-found' : 'too-few-frames',
+      decodable
+        ? `target not found: no frame of the sweep shows a ${pattern} target`
+        : 'too few usable frames: no frame of the sweep could be decoded',
+    );
+  }
+  const polarity = options.polarity ?? majorityPolarity(found.map((l) => l.detection!.polarity));
+  const regionSidePx = chooseRegionSide(found.map((l) => l.detection!), pattern);
+
+  const results: FrameAnalysis[] = await mapWithConcurrency(frames, options.concurrency, async (frame, index) => {
+    const loc = located[index];
+    const base: FrameAnalysis = {
+      file: frame.file,
+      positionMm: frame.positionMm,
+      status: 'rejected',
+      focusValue: null,
+      sizePx: null,
+      mtf50CyclesPerPixel: null,
+      saturatedFraction: null,
+      meanLevel: null,
+      overlay: null,
+      focusResidual: null,
+    };
+    try {
+      if (!loc.detection) return { ...base, reason: loc.reason ?? 'target-lost' };
+      if (loc.detection.polarity !== polarity) return { ...base, reason: 'target-lost' as const };
+      const rect = regionAround(loc.detection.centrePx, regionSidePx, loc.fullWidth, loc.fullHeight);
+      const region = await readOrReject<GreyImage>(frame.file, () => source.readRegion(frame.file, rect));
+      if (isRejected(region)) return { ...base, reason: 'undecodable' as const };
+      return measureFrame(region, rect, loc.detection, { ...options, polarity }, base);
+    } finally {
+      options.onFrameDone(frame.file);
+    }
+  });
+
+  return { frames: results, polarity, regionSidePx };
+}
+
+function measureFrame(
+  region: GreyImage,
+  rect: PixelRect,
+  detection: TargetDetection,
+  options: AnalyseSweepFramesOptions & { polarity: TargetPolarity },
+  base: FrameAnalysis,
+): FrameAnalysis {
+  const clipped = saturatedFraction(region, {});
+  const meanLevel = regionMean(region);
+  const withLevels = { ...base, saturatedFraction: clipped, meanLevel };
+  if (clipped > options.saturatedShareLimit) return { ...withLevels, reason: 'saturated' };
+
+  const measures = focusMeasures(region, { normalise: true });
+  const focusValue = measures[options.focusOperator];
+  const local = translateDetection(detection, -rect.x, -rect.y);
+
+  let sizePx: number | null = null;
+  let overlay: FrameOverlay | null = null;
+  let mtf50: number | null = null;
+  try {
+    if (options.pattern === 'dot-pair') {
+      const [a, b] = local.blobs;
+      const separation = Math.hypot(a.centroidPx.x - b.centroidPx.x, a.centroidPx.y - b.centroidPx.y);
+      const dotRadius = Math.sqrt(Math.max(a.areaPx, b.areaPx) / Math.PI);
+      const searchRadiusPx = Math.max(4, Math.min(0.48 * separation, 2.5 * dotRadius));
+      const dots = measureDotPair(region, {
+        polarity: options.polarity,
+        approximateCentresPx: [a.centroidPx, b.centroidPx],
+        searchRadiusPx,
+      });
+      sizePx = dots.sizePx;
+      overlay = {
+        pattern: 'dot-pair',
+        regionPx: rect,
+        pointsPx: dots.centresPx.map((p) => ({ x: p.x + rect.x, y: p.y + rect.y })),
+        radiusPx: dotRadius,
+      };
+    } else {
+      const square = measureSquare(region, { polarity: options.polarity, approximateBoundingBox: local.boundingBox });
+      sizePx = square.sizePx;
+      overlay = {
+        pattern: 'square',
+        regionPx: rect,
+        pointsPx: square.cornersPx.map((p) => ({ x: p.x + rect.x, y: p.y + rect.y })),
+      };
+      mtf50 = medianOf(
+        squareEdgeRects(square, { widthPx: Math.max(24, Math.round(square.sizePx * 0.25)) }).flatMap((edgeRect) => {
+          try {
+            const value = slantedEdgeMtf(region, { rect: edgeRect }).mtf50CyclesPerPixel;
+            return Number.isFinite(value) ? [value] : [];
+          } catch {
+            return [];
+          }
+        }),
+      );
+    }
+  } catch {
+    return { ...withLevels, focusValue, focusValues: measures, reason: 'target-lost' };
+  }
+  if (sizePx === null || !Number.isFinite(sizePx) || sizePx <= 0) {
+    return { ...withLevels, focusValue, focusValues: measures, reason: 'target-lost' };
+  }
+  return {
+    ...withLevels,
+    status: 'used',
+    reason: undefined,
+    focusValue,
+    focusValues: measures,
+    sizePx,
+    overlay,
+    mtf50CyclesPerPixel: mtf50,
+  };
+}
+
+function medianOf(values: number[]): number | null {
+  if (values.length === 0) return null;
+  const sorted = [...values].sort((a, b) => a - b);
+  const mid = sorted.length >> 1;
+  return sorted.length % 2 ? sorted[mid] : (sorted[mid - 1] + sorted[mid]) / 2;
+}
+
+function majorityPolarity(values: TargetPolarity[]): TargetPolarity {
+  const dark = values.filter((v) => v === 'dark-on-light').length;
+  return dark * 2 >= values.length ? 'dark-on-light' : 'light-on-dark';
+}
+
+/**
+ * One region side for the whole sweep: the largest target extent seen (the
+ * most blurred frame sets it) with a margin for the blur tails beyond the
+ * threshold that found it.
+ */
+function chooseRegionSide(detections: TargetDetection[], pattern: TargetPattern): number {
+  const extents = detections.map((d) => Math.max(d.boundingBox.width, d.boundingBox.height)).sort((a, b) => a - b);
+  const largest = extents[extents.length - 1];
+  const margin = pattern === 'square' ? 0.45 : 0.35;
+  return Math.ceil(largest * (1 + margin) + 16);
+}
+
+function regionAround(centre: { x: number; y: number }, side: number, width: number, height: number): PixelRect {
+  const w = Math.min(side, width);
+  const h = Math.min(side, height);
+  const x = Math.round(Math.min(Math.max(0, centre.x - w / 2), width - w));
+  const y = Math.round(Math.min(Math.max(0, centre.y - h / 2), height - h));
+  return { x, y, width: w, height: h };
+}
+
+function scaleDetection(d: TargetDetection, factor: number): TargetDetection {
+  if (factor === 1) return d;
+  // A reduced pixel i covers full-resolution pixels [i·f, (i+1)·f): its centre is at (i + 0.5)·f − 0.5.
+  const point = (p: { x: number; y: number }) => ({ x: (p.x + 0.5) * factor - 0.5, y: (p.y + 0.5) * factor - 0.5 });
+  const rect = (r: PixelRect): PixelRect => ({ x: r.x * factor, y: r.y * factor, width: r.width * factor, height: r.height * factor });
+  return {
+    ...d,
+    boundingBox: rect(d.boundingBox),
+    centrePx: point(d.centrePx),
+    blobs: d.blobs.map((b) => ({ ...b, centroidPx: point(b.centroidPx), areaPx: b.areaPx * factor * factor, boundingBox: rect(b.boundingBox) })),
+  };
+}
+
+function translateDetection(d: TargetDetection, dx: number, dy: number): TargetDetection {
+  const point = (p: { x: number; y: number }) => ({ x: p.x + dx, y: p.y + dy });
+  const rect = (r: PixelRect): PixelRect => ({ ...r, x: r.x + dx, y: r.y + dy });
+  return {
+    ...d,
+    boundingBox: rect(d.boundingBox),
+    centrePx: point(d.centrePx),
+    blobs: d.blobs.map((b) => ({ ...b, centroidPx: point(b.centroidPx), boundingBox: rect(b.boundingBox) })),
+  };
+}
