@@ -1,0 +1,83 @@
+import { pathToFileURL } from 'node:url';
+import { createDatabase, type Database } from '../../server/db/client';
+import { parseEnv } from '../../server/env';
+import { createPasswordHasher, type PasswordHasher } from '../../server/services/passwords';
+import { seedDemoOrganisations, type DemoOrganisationKey } from './demo-organisations';
+import { demoPeople, seedDemoPeople } from './demo-people';
+
+export interface SeedContext {
+  db: Database;
+  passwords: PasswordHasher;
+  /** Filled in by earlier steps for later ones. */
+  organisationIds: Partial<Record<DemoOrganisationKey, string>>;
+  personIdsByEmail: Record<string, string>;
+  report(message: string): void;
+}
+
+/** One idempotent piece of demo data; running it twice changes nothing. */
+export interface SeedStep {
+  name: string;
+  run(context: SeedContext): Promise<void>;
+}
+
+/** In order; later demo data (equipment, work orders, measurements) appends steps here. */
+export const demoSeedSteps: SeedStep[] = [
+  {
+    name: 'organisations',
+    async run(context) {
+      context.organisationIds = await seedDemoOrganisations(context.db);
+    },
+  },
+  {
+    name: 'people',
+    async run(context) {
+      const { idByEmail, created } = await seedDemoPeople(context.db, {
+        organisationIds: context.organisationIds as Record<DemoOrganisationKey, string>,
+        passwords: context.passwords,
+      });
+      context.personIdsByEmail = idByEmail;
+      if (created.length > 0) context.report(`created ${created.length} demo account(s)`);
+    },
+  },
+];
+
+export interface SeedDemoResult {
+  organisationIds: Partial<Record<DemoOrganisationKey, string>>;
+  personIdsByEmail: Record<string, string>;
+}
+
+export async function seedDemo(options: {
+  db: Database;
+  passwords: PasswordHasher;
+  report?: (message: string) => void;
+}): Promise<SeedDemoResult> {
+  const context: SeedContext = {
+    db: options.db,
+    passwords: options.passwords,
+    organisationIds: {},
+    personIdsByEmail: {},
+    report: options.report ?? (() => undefined),
+  };
+  for (const step of demoSeedSteps) await step.run(context);
+  return { organisationIds: context.organisationIds, personIdsByEmail: context.personIdsByEmail };
+}
+
+/** The lines `npm start` prints so people can try every role. */
+export function demoSignInLines(): string[] {
+  return [
+    'Demo sign-ins (demo only: invented people, not for real use):',
+    ...demoPeople.map((p) => `  ${p.roles.join('+').padEnd(11)} ${p.email.padEnd(30)} ${p.password}`),
+  ];
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  const env = parseEnv();
+  const { pool, db } = createDatabase({ databaseUrl: env.DATABASE_URL, maxConnections: 2 });
+  seedDemo({ db, passwords: createPasswordHasher({ rounds: env.PASSWORD_HASH_ROUNDS }), report: (m) => console.error(m) })
+    .then(() => console.error(demoSignInLines().join('\n')))
+    .finally(() => pool.end())
+    .catch((error: Error) => {
+      console.error(`Seeding failed: ${error.message}`);
+      process.exitCode = 1;
+    });
+}

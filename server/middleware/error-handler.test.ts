@@ -1,0 +1,68 @@
+import express from 'express';
+import multer from 'multer';
+import request from 'supertest';
+import { describe, expect, it } from 'vitest';
+import { HttpError } from '../http-error';
+import { HttpStatus } from '../http-status';
+import type { Logger } from '../services/logger';
+import { apiNotFound, errorHandler, INTERNAL_ERROR_MESSAGE } from './error-handler';
+
+function recordingLogger() {
+  const errors: { message: string; details?: Record<string, unknown> }[] = [];
+  const log: Logger = {
+    debug: () => undefined,
+    info: () => undefined,
+    warn: () => undefined,
+    error: (message, details) => errors.push({ message, details }),
+  };
+  return { log, errors };
+}
+
+function appThrowing(error: unknown, log: Logger) {
+  const app = express();
+  app.get('/api/boom', async () => {
+    throw error;
+  });
+  app.use('/api', apiNotFound);
+  app.use(errorHandler(log));
+  return app;
+}
+
+describe('errorHandler', () => {
+  it('answers a bug with a plain 500 that carries no stack trace, and logs the stack', async () => {
+    const { log, errors } = recordingLogger();
+    const bug = new TypeError('Cannot read properties of undefined (reading "focalLengthMm")');
+    const response = await request(appThrowing(bug, log)).get('/api/boom');
+    expect(response.status).toBe(500);
+    expect(response.body).toEqual({ error: { message: INTERNAL_ERROR_MESSAGE } });
+    expect(response.text).not.toContain('focalLengthMm');
+    expect(response.text).not.toContain('at ');
+    expect(errors).toHaveLength(1);
+    expect((errors[0].details?.error as Error).stack).toContain('TypeError');
+  });
+
+  it('passes an HttpError through with its status, sentence and fields', async () => {
+    const { log, errors } = recordingLogger();
+    const error = new HttpError(HttpStatus.CONFLICT, 'That lens identifier is already used.', { serial: 'Serial is taken.' });
+    const response = await request(appThrowing(error, log)).get('/api/boom');
+    expect(response.status).toBe(409);
+    expect(response.body).toEqual({ error: { message: 'That lens identifier is already used.', fields: { serial: 'Serial is taken.' } } });
+    expect(errors).toHaveLength(0);
+  });
+
+  it('maps an oversized multer upload to 413 naming the field', async () => {
+    const { log } = recordingLogger();
+    const response = await request(appThrowing(new multer.MulterError('LIMIT_FILE_SIZE', 'frames'), log)).get('/api/boom');
+    expect(response.status).toBe(413);
+    expect(response.body).toEqual({
+      error: { message: 'A file in "frames" is larger than the upload limit.', fields: { frames: 'A file in "frames" is larger than the upload limit.' } },
+    });
+  });
+
+  it('maps an unexpected multer file field to 400', async () => {
+    const { log } = recordingLogger();
+    const response = await request(appThrowing(new multer.MulterError('LIMIT_UNEXPECTED_FILE', 'photo'), log)).get('/api/boom');
+    expect(response.status).toBe(400);
+    expect(response.body.error.message).toBe('The upload has a file in an unexpected field "photo".');
+  });
+});
