@@ -1,8 +1,11 @@
 import { sql } from 'drizzle-orm';
 import {
+  bigint,
   bigserial,
   boolean,
   check,
+  doublePrecision,
+  integer,
   index,
   jsonb,
   pgEnum,
@@ -10,10 +13,12 @@ import {
   primaryKey,
   text,
   timestamp,
+  uniqueIndex,
   uuid,
   varchar,
   json,
 } from 'drizzle-orm/pg-core';
+import { focusOperators, measurementMethods } from '../../shared/schemas/measurement-manifest';
 
 export const organisationKindValues = ['lab', 'client'] as const;
 export type OrganisationKind = (typeof organisationKindValues)[number];
@@ -89,4 +94,237 @@ export const httpSessions = pgTable(
     expire: timestamp('expire', { precision: 6 }).notNull(),
   },
   (table) => [index('http_sessions_expire_idx').on(table.expire)],
+);
+
+/* ------------------------------------------------------------------ */
+/* The bench workflow: work orders, lenses, equipment, measurements.  */
+/* ------------------------------------------------------------------ */
+
+export const workOrderStatusValues = ['requested', 'open', 'in-progress', 'completed', 'cancelled'] as const;
+export type WorkOrderStatus = (typeof workOrderStatusValues)[number];
+export const workOrderStatus = pgEnum('work_order_status', workOrderStatusValues);
+
+export const decisionRuleValues = ['simple', 'guarded'] as const;
+export type DecisionRule = (typeof decisionRuleValues)[number];
+export const decisionRule = pgEnum('decision_rule', decisionRuleValues);
+
+export const workOrders = pgTable(
+  'work_orders',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    /** Human-facing number, e.g. WO-2026-0012; unique. */
+    number: text('number').notNull().unique(),
+    organisationId: uuid('organisation_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'restrict' }),
+    title: text('title').notNull(),
+    clientReference: text('client_reference'),
+    notes: text('notes'),
+    status: workOrderStatus('status').notNull().default('open'),
+    decisionRule: decisionRule('decision_rule').notNull().default('simple'),
+    dueDate: text('due_date'), // ISO date (YYYY-MM-DD)
+    createdById: uuid('created_by_id').references(() => people.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [
+    index('work_orders_organisation_idx').on(table.organisationId),
+    index('work_orders_status_idx').on(table.status),
+    index('work_orders_due_idx').on(table.dueDate),
+    index('work_orders_created_idx').on(table.createdAt),
+  ],
+);
+
+export const lenses = pgTable(
+  'lenses',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    workOrderId: uuid('work_order_id')
+      .notNull()
+      .references(() => workOrders.id, { onDelete: 'restrict' }),
+    /** Identifier or serial marked on the item. */
+    identifier: text('identifier').notNull(),
+    description: text('description').notNull().default(''),
+    partNumber: text('part_number'),
+    /** Signed: negative for a diverging lens. */
+    nominalFocalLengthMm: doublePrecision('nominal_focal_length_mm').notNull(),
+    tolerancePercent: doublePrecision('tolerance_percent'),
+    toleranceMm: doublePrecision('tolerance_mm'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [
+    index('lenses_work_order_idx').on(table.workOrderId),
+    index('lenses_part_number_idx').on(table.partNumber),
+    check('lenses_tolerance_given', sql`${table.tolerancePercent} is not null or ${table.toleranceMm} is not null`),
+    check('lenses_nominal_not_zero', sql`${table.nominalFocalLengthMm} <> 0`),
+  ],
+);
+
+export const equipmentKindValues = ['camera', 'target', 'rail-scale', 'collimator', 'auxiliary-lens'] as const;
+export type EquipmentKind = (typeof equipmentKindValues)[number];
+export const equipmentKind = pgEnum('equipment_kind', equipmentKindValues);
+
+/**
+ * Values per kind (all uncertainties are standard, k = 1):
+ * camera { pixelPitchUm, pixelPitchUncertaintyUm, widthPx?, heightPx? };
+ * target { pattern: 'dot-pair'|'square', sizeMm, sizeUncertaintyMm, polarity? };
+ * rail-scale { uncertaintyMm, lengthMm? };
+ * collimator / auxiliary-lens { focalLengthMm, focalLengthUncertaintyMm }.
+ */
+export type EquipmentValues = Record<string, string | number | null>;
+
+export const equipment = pgTable(
+  'equipment',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    kind: equipmentKind('kind').notNull(),
+    identifier: text('identifier').notNull().unique(),
+    description: text('description').notNull().default(''),
+    serialNumber: text('serial_number'),
+    values: jsonb('values').$type<EquipmentValues>().notNull(),
+    calibrationReference: text('calibration_reference').notNull(),
+    calibrationDueDate: text('calibration_due_date').notNull(), // ISO date
+    active: boolean('active').notNull().default(true),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index('equipment_kind_idx').on(table.kind)],
+);
+
+export const measurementMethodValues = measurementMethods;
+export const measurementMethod = pgEnum('measurement_method', measurementMethodValues);
+
+export const measurementStatusValues = [
+  'draft',
+  'analysing',
+  'analysed',
+  'analysis-failed',
+  'submitted',
+  'approved',
+  'returned',
+  'certified',
+] as const;
+export type MeasurementStatus = (typeof measurementStatusValues)[number];
+export const measurementStatus = pgEnum('measurement_status', measurementStatusValues);
+
+export const focusOperatorValues = focusOperators;
+export const focusOperator = pgEnum('focus_operator', focusOperatorValues);
+
+export const measurements = pgTable(
+  'measurements',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    /** Human-facing number, e.g. M-2026-0031; unique. */
+    number: text('number').notNull().unique(),
+    lensId: uuid('lens_id')
+      .notNull()
+      .references(() => lenses.id, { onDelete: 'restrict' }),
+    method: measurementMethod('method').notNull(),
+    status: measurementStatus('status').notNull().default('draft'),
+    cameraId: uuid('camera_id').references(() => equipment.id, { onDelete: 'restrict' }),
+    targetId: uuid('target_id').references(() => equipment.id, { onDelete: 'restrict' }),
+    railScaleId: uuid('rail_scale_id').references(() => equipment.id, { onDelete: 'restrict' }),
+    collimatorId: uuid('collimator_id').references(() => equipment.id, { onDelete: 'restrict' }),
+    auxiliaryLensId: uuid('auxiliary_lens_id').references(() => equipment.id, { onDelete: 'restrict' }),
+    /** Equipment used past its calibration due date: [{ equipmentId, reason, recordedById, recordedAt }]. */
+    equipmentOverrides: jsonb('equipment_overrides')
+      .$type<{ equipmentId: string; reason: string; recordedById: string; recordedAt: string }[]>()
+      .notNull()
+      .default([]),
+    temperatureC: doublePrecision('temperature_c'),
+    relativeHumidityPercent: doublePrecision('relative_humidity_percent'),
+    focusOperator: focusOperator('focus_operator').notNull().default('gradient-energy'),
+    notes: text('notes'),
+    performedById: uuid('performed_by_id').references(() => people.id, { onDelete: 'set null' }),
+    measuredOn: text('measured_on'), // ISO date
+    /** The analysis run shown (and, once submitted, the one under review). */
+    currentAnalysisId: uuid('current_analysis_id'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [
+    index('measurements_lens_idx').on(table.lensId),
+    index('measurements_status_idx').on(table.status),
+    index('measurements_performed_by_idx').on(table.performedById),
+  ],
+);
+
+export const sweepMovingValues = ['sensor', 'lens'] as const;
+export const sweepMoving = pgEnum('sweep_moving', sweepMovingValues);
+
+export const sweeps = pgTable(
+  'sweeps',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    measurementId: uuid('measurement_id')
+      .notNull()
+      .references(() => measurements.id, { onDelete: 'cascade' }),
+    /** 0-based order within the measurement. */
+    position: integer('position').notNull(),
+    moving: sweepMoving('moving').notNull(),
+    objectPositionMm: doublePrecision('object_position_mm'),
+    lensPositionMm: doublePrecision('lens_position_mm'),
+    sensorPositionMm: doublePrecision('sensor_position_mm'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [uniqueIndex('sweeps_measurement_position_idx').on(table.measurementId, table.position)],
+);
+
+export const frames = pgTable(
+  'frames',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    sweepId: uuid('sweep_id')
+      .notNull()
+      .references(() => sweeps.id, { onDelete: 'cascade' }),
+    /** The file name as uploaded (sanitised); unique within a sweep. */
+    fileName: text('file_name').notNull(),
+    /** Rail reading of this frame, mm; null until readings are given. */
+    positionMm: doublePrecision('position_mm'),
+    objectKey: text('object_key').notNull(),
+    thumbnailKey: text('thumbnail_key'),
+    previewKey: text('preview_key'),
+    contentType: text('content_type').notNull(),
+    byteSize: bigint('byte_size', { mode: 'number' }).notNull(),
+    widthPx: integer('width_px').notNull(),
+    heightPx: integer('height_px').notNull(),
+    bitDepth: integer('bit_depth').notNull(),
+    sha256: text('sha256').notNull(),
+    /** Excluded by a person from the next analysis run. */
+    excluded: boolean('excluded').notNull().default(false),
+    /** Set when raw pixels were purged by retention; thumbnails and preview remain. */
+    purgedAt: timestamp('purged_at', { withTimezone: true }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [uniqueIndex('frames_sweep_file_idx').on(table.sweepId, table.fileName), index('frames_sweep_idx').on(table.sweepId)],
+);
+
+export const analysisRunStatusValues = ['queued', 'running', 'succeeded', 'failed'] as const;
+export type AnalysisRunStatus = (typeof analysisRunStatusValues)[number];
+export const analysisRunStatus = pgEnum('analysis_run_status', analysisRunStatusValues);
+
+/** Every analysis run is kept; a re-run adds a version and never overwrites one. */
+export const analysisRuns = pgTable(
+  'analysis_runs',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    measurementId: uuid('measurement_id')
+      .notNull()
+      .references(() => measurements.id, { onDelete: 'cascade' }),
+    version: integer('version').notNull(),
+    status: analysisRunStatus('status').notNull().default('queued'),
+    /** The manifest the engine was given (frames as object keys' file names, readings, equipment values). */
+    manifest: jsonb('manifest').$type<Record<string, unknown>>().notNull(),
+    result: jsonb('result').$type<Record<string, unknown>>(),
+    errorMessage: text('error_message'),
+    framesDone: integer('frames_done').notNull().default(0),
+    framesTotal: integer('frames_total').notNull().default(0),
+    attempts: integer('attempts').notNull().default(0),
+    jobId: text('job_id'),
+    requestedById: uuid('requested_by_id').references(() => people.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    startedAt: timestamp('started_at', { withTimezone: true }),
+    finishedAt: timestamp('finished_at', { withTimezone: true }),
+  },
+  (table) => [uniqueIndex('analysis_runs_measurement_version_idx').on(table.measurementId, table.version)],
 );
