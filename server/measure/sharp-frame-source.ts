@@ -1,6 +1,6 @@
 import { stat } from 'node:fs/promises';
 import path from 'node:path';
-import sharp from 'sharp';
+import sharp, { type Sharp } from 'sharp';
 import type { GreyImage, PixelRect } from '../../shared/measure/types';
 import type { FrameSource, ReducedFrame } from '../../shared/measure/engine/frame-source';
 import { FrameMissingError, FrameUnreadableError } from '../../shared/measure/engine/measurement-error';
@@ -21,7 +21,7 @@ export interface DecodedRaw {
  * `greyscale()` alone would scale them to 0–255), colour is reduced to
  * luminance, alpha is dropped.
  */
-async function toGreyImage(pipeline: sharp.Sharp, sixteenBit: boolean): Promise<GreyImage> {
+async function toGreyImage(pipeline: Sharp, sixteenBit: boolean): Promise<GreyImage> {
   const grey = sixteenBit ? pipeline.toColourspace('grey16') : pipeline.greyscale();
   const { data, info } = await grey.removeAlpha().raw(sixteenBit ? { depth: 'ushort' } : {}).toBuffer({ resolveWithObject: true });
   const pixels = info.width * info.height;

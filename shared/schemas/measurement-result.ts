@@ -122,6 +122,9 @@ export interface MeasurementResult {
     standardUncertaintyMm: number;
     intervalLowMm: number;
     intervalHighMm: number;
+    /** Scatter of the interval ends between batches (JCGM 101:2008 §7.9.4). */
+    endpointStandardDeviationMm: number;
+    numericalToleranceMm: number;
     agreesWithGum: boolean;
   };
   /** Intermediate estimates (e.g. from positions and from magnification) with their standard uncertainties. */

@@ -2,7 +2,7 @@ import type { MeasurementManifest } from '../../schemas/measurement-manifest';
 import type { FrameAnalysis, MeasurementResult, SweepResult } from '../../schemas/measurement-result';
 import type { FocusOperator } from '../types';
 import { propagateGum } from '../uncertainty/propagate-gum';
-import { compareGumWithMonteCarlo, propagateMonteCarlo } from '../uncertainty/propagate-monte-carlo';
+import { monteCarloCrossCheck } from './monte-carlo-cross-check';
 import { opticalPowerDioptres } from '../solvers/optical-power';
 import { decideConformity, toleranceLimits } from '../conformity/decide-conformity';
 import { analyseSweepFrames } from './analyse-sweep-frames';
@@ -67,11 +67,10 @@ export async function analyseMeasurement(options: AnalyseMeasurementOptions): Pr
   const warnings = [...model.warnings];
 
   const draws = options.monteCarloDraws ?? manifest.analysis?.monteCarloDraws ?? 100_000;
-  const mc = propagateMonteCarlo({ inputs: model.inputs.inputs, model: model.focalLength, draws, seed: options.seed ?? 20261201 });
-  const agreement = compareGumWithMonteCarlo({ gum, monteCarlo: mc });
-  if (!agreement.agrees) {
+  const mc = monteCarloCrossCheck({ inputs: model.inputs.inputs, model: model.focalLength, gum, draws, seed: options.seed ?? 20261201 });
+  if (!mc.agrees) {
     warnings.push(
-      `The Monte Carlo interval [${mc.intervalLow.toFixed(4)}, ${mc.intervalHigh.toFixed(4)}] mm differs from the GUM interval by more than the numerical tolerance (${agreement.numericalTolerance.toExponential(1)} mm): the model is not linear enough for the GUM framework alone.`,
+      `The Monte Carlo 95 % interval [${mc.intervalLow.toFixed(4)}, ${mc.intervalHigh.toFixed(4)}] mm differs from the GUM interval [${(gum.value - gum.expandedUncertainty).toFixed(4)}, ${(gum.value + gum.expandedUncertainty).toFixed(4)}] mm by more than the numerical tolerance, so the GUM framework is not validated for this measurement (JCGM 101:2008 §8); the Monte Carlo interval is the better statement.`,
     );
   }
 
@@ -105,7 +104,9 @@ export async function analyseMeasurement(options: AnalyseMeasurementOptions): Pr
       standardUncertaintyMm: mc.standardUncertainty,
       intervalLowMm: mc.intervalLow,
       intervalHighMm: mc.intervalHigh,
-      agreesWithGum: agreement.agrees,
+      endpointStandardDeviationMm: mc.endpointStandardDeviation,
+      numericalToleranceMm: mc.numericalTolerance,
+      agreesWithGum: mc.agrees,
     },
     estimates,
     engineVersion: ENGINE_VERSION,

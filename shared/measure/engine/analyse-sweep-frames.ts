@@ -4,8 +4,10 @@ import { detectTarget, type TargetDetection } from '../target/detect-target';
 import { measureDotPair } from '../target/measure-dot-pair';
 import { measureSquare } from '../target/measure-square';
 import { focusMeasures } from '../focus/focus-measure';
-import { saturatedFraction, regionMean } from '../image/statistics';
-import { slantedEdgeMtf, squareEdgeRects } from '../mtf/slanted-edge-mtf';
+import { saturatedFraction } from '../image/saturated-fraction';
+import { regionMean } from '../image/region-mean';
+import { slantedEdgeMtf } from '../mtf/slanted-edge-mtf';
+import { squareEdgeRects } from '../mtf/square-edge-rects';
 import { FrameMissingError, FrameUnreadableError, MeasurementError } from './measurement-error';
 import type { FrameSource, ReducedFrame } from './frame-source';
 import { mapWithConcurrency } from './map-with-concurrency';
@@ -138,7 +140,7 @@ function measureFrame(
   const withLevels = { ...base, saturatedFraction: clipped, meanLevel };
   if (clipped > options.saturatedShareLimit) return { ...withLevels, reason: 'saturated' };
 
-  const measures = focusMeasures(region, { normalise: true });
+  const measures = focusMeasures(region, { normalise: true }).measures;
   const focusValue = measures[options.focusOperator];
   const local = translateDetection(detection, -rect.x, -rect.y);
 

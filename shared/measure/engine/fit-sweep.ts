@@ -31,7 +31,7 @@ export function fitSweep(frames: FrameAnalysis[], options: { sweepLabel: string;
 
   let fits: BestFocusFit[];
   try {
-    fits = options.peaks === 1 ? [fitBestFocus({ positionsMm, focusValues })] : fitTwoBestFoci({ positionsMm, focusValues });
+    fits = bestFittingPeaks(positionsMm, focusValues, options.peaks);
   } catch (error) {
     if (error instanceof NoFocusPeakError) {
       const hint =
@@ -58,6 +58,31 @@ export function fitSweep(frames: FrameAnalysis[], options: { sweepLabel: string;
     focus: toFocusPeakFit(fit, positionsMm),
     size: fitSizeNearFocus(usable, fit, options.sweepLabel),
   }));
+}
+
+/** Points either side of the peak used by the fit, in model widths: enough for degrees of freedom, few enough to stay on the peak. */
+const FOCUS_WINDOW_HALF_WIDTH = 6;
+
+/**
+ * Fits both peak models and keeps the one whose residual scatter, relative
+ * to its peak height, is smaller: a sharply sampled peak is near Gaussian, a
+ * coarsely sampled one with long defocus tails near Lorentzian.
+ */
+function bestFittingPeaks(positionsMm: number[], focusValues: number[], peaks: 1 | 2): BestFocusFit[] {
+  const candidates: BestFocusFit[][] = [];
+  let firstError: unknown;
+  for (const model of ['lorentzian', 'gaussian'] as const) {
+    try {
+      const options = { positionsMm, focusValues, model, windowHalfWidth: FOCUS_WINDOW_HALF_WIDTH };
+      candidates.push(peaks === 1 ? [fitBestFocus(options)] : fitTwoBestFoci(options));
+    } catch (error) {
+      firstError ??= error;
+    }
+  }
+  if (candidates.length === 0) throw firstError;
+  const badness = (fits: BestFocusFit[]) =>
+    Math.max(...fits.map((f) => f.residualStandardDeviation / Math.max(Math.abs(f.peakValue - f.baseline), 1e-300)));
+  return candidates.reduce((best, next) => (badness(next) < badness(best) ? next : best));
 }
 
 function toFocusPeakFit(fit: BestFocusFit, positionsMm: number[]): FocusPeakFit {

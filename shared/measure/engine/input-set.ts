@@ -1,4 +1,4 @@
-import type { GumInput } from '../uncertainty/propagate-gum';
+import type { GumInput } from '../uncertainty/gum-input';
 
 /**
  * Collects the inputs of a measurement model (GUM, JCGM 100:2008 §4) and hands
