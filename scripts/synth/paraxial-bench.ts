@@ -144,6 +144,9 @@ export function solveSweepFocus(options: { scenario: ResolvedBenchScenario; swee
   const effectiveMm = distanceMm - (scenario.lens.rearOffsetMm - scenario.lens.frontOffsetMm);
   const discriminant = effectiveMm * effectiveMm - 4 * effectiveMm * f;
   if (!(effectiveMm > 0) || discriminant <= 0) {
+    // With D ≤ 4f the image never forms on the sensor. Explicit readings may still
+    // be rendered (every frame blurred): a bench set up wrongly, for rejection tests.
+    if (sweep.positionsMm) return [];
     throw new Error(
       `${name}: the object–sensor distance ${distanceMm.toFixed(3)} mm must exceed 4f = ${(4 * f).toFixed(3)} mm (plus the principal-plane separation) for two sharp lens positions.`,
     );

@@ -93,7 +93,7 @@ export function planBenchMeasurement(input: BenchScenario): BenchPlan {
       lensPositionMm: sweep.lensPositionMm,
       sensorPositionMm: sweep.sensorPositionMm,
       bestFocusPositionMm: lensMoves ? null : focus[0].positionMm,
-      sharpLensPositionsMm: lensMoves ? [focus[0].positionMm, focus[1].positionMm] : null,
+      sharpLensPositionsMm: lensMoves && focus.length === 2 ? [focus[0].positionMm, focus[1].positionMm] : null,
       focus,
       frames: frameTruths,
     });

@@ -79,7 +79,8 @@ export class SharpFrameSource implements FrameSource {
       let pipeline = sharp(this.resolve(file));
       if (factor > 1) pipeline = pipeline.resize({ width, height, fit: 'fill', kernel: 'linear' });
       const image = await toGreyImage(pipeline, header.sixteenBit);
-      return { image, factor: header.width / image.width, fullWidth: header.width, fullHeight: header.height };
+      // Integer factor: the reduced copy drops the last (width mod factor) columns, well below what locating needs.
+      return { image, factor, fullWidth: header.width, fullHeight: header.height };
     } catch (error) {
       throw new FrameUnreadableError(file, describe(error));
     }

@@ -1,6 +1,7 @@
 import type { FocusOperator, GreyImage, PixelRect, TargetPattern, TargetPolarity } from '../types';
 import type { FrameAnalysis, FrameOverlay, FrameRejectionReason } from '../../schemas/measurement-result';
 import { detectTarget, type TargetDetection } from '../target/detect-target';
+import { scaleTargetDetection, shiftTargetDetection } from '../target/target-detection-coordinates';
 import { measureDotPair } from '../target/measure-dot-pair';
 import { measureSquare } from '../target/measure-square';
 import { focusMeasures } from '../focus/focus-measure';
@@ -83,7 +84,7 @@ export async function analyseSweepFrames(options: AnalyseSweepFramesOptions): Pr
     const detection = detectTarget(reduced.image, { pattern, polarity: options.polarity });
     const base = { factor: reduced.factor, fullWidth: reduced.fullWidth, fullHeight: reduced.fullHeight };
     if (!detection) return { ...base, detection: null, reason: 'target-lost' } satisfies Located;
-    return { ...base, detection: scaleDetection(detection, reduced.factor) } satisfies Located;
+    return { ...base, detection: scaleTargetDetection(detection, { factor: reduced.factor }) } satisfies Located;
   });
 
   const found = located.filter((l) => l.detection !== null);
@@ -97,7 +98,7 @@ export async function analyseSweepFrames(options: AnalyseSweepFramesOptions): Pr
     );
   }
   const polarity = options.polarity ?? majorityPolarity(found.map((l) => l.detection!.polarity));
-  const regionSidePx = chooseRegionSide(found.map((l) => l.detection!), pattern);
+  const regionSidePx = chooseRegionSide(found.map((l) => l.detection!));
 
   const results: FrameAnalysis[] = await mapWithConcurrency(frames, options.concurrency, async (frame, index) => {
     const loc = located[index];
@@ -142,7 +143,7 @@ function measureFrame(
 
   const measures = focusMeasures(region, { normalise: true }).measures;
   const focusValue = measures[options.focusOperator];
-  const local = translateDetection(detection, -rect.x, -rect.y);
+  const local = shiftTargetDetection(detection, { originPx: { x: rect.x, y: rect.y } });
 
   let sizePx: number | null = null;
   let overlay: FrameOverlay | null = null;
@@ -215,15 +216,13 @@ function majorityPolarity(values: TargetPolarity[]): TargetPolarity {
 }
 
 /**
- * One region side for the whole sweep: the largest target extent seen (the
- * most blurred frame sets it) with a margin for the blur tails beyond the
- * threshold that found it.
+ * One region side for the whole sweep: the largest blurred target extent
+ * seen (down to 10 % contrast; the most blurred frame sets it) with a
+ * margin of background around it, which both size methods need.
  */
-function chooseRegionSide(detections: TargetDetection[], pattern: TargetPattern): number {
-  const extents = detections.map((d) => Math.max(d.boundingBox.width, d.boundingBox.height)).sort((a, b) => a - b);
-  const largest = extents[extents.length - 1];
-  const margin = pattern === 'square' ? 0.45 : 0.35;
-  return Math.ceil(largest * (1 + margin) + 16);
+function chooseRegionSide(detections: TargetDetection[]): number {
+  const largest = Math.max(...detections.map((d) => Math.max(d.blurExtentBox.width, d.blurExtentBox.height)));
+  return Math.ceil(largest * 1.3 + 16);
 }
 
 function regionAround(centre: { x: number; y: number }, side: number, width: number, height: number): PixelRect {
@@ -232,28 +231,4 @@ function regionAround(centre: { x: number; y: number }, side: number, width: num
   const x = Math.round(Math.min(Math.max(0, centre.x - w / 2), width - w));
   const y = Math.round(Math.min(Math.max(0, centre.y - h / 2), height - h));
   return { x, y, width: w, height: h };
-}
-
-function scaleDetection(d: TargetDetection, factor: number): TargetDetection {
-  if (factor === 1) return d;
-  // A reduced pixel i covers full-resolution pixels [i·f, (i+1)·f): its centre is at (i + 0.5)·f − 0.5.
-  const point = (p: { x: number; y: number }) => ({ x: (p.x + 0.5) * factor - 0.5, y: (p.y + 0.5) * factor - 0.5 });
-  const rect = (r: PixelRect): PixelRect => ({ x: r.x * factor, y: r.y * factor, width: r.width * factor, height: r.height * factor });
-  return {
-    ...d,
-    boundingBox: rect(d.boundingBox),
-    centrePx: point(d.centrePx),
-    blobs: d.blobs.map((b) => ({ ...b, centroidPx: point(b.centroidPx), areaPx: b.areaPx * factor * factor, boundingBox: rect(b.boundingBox) })),
-  };
-}
-
-function translateDetection(d: TargetDetection, dx: number, dy: number): TargetDetection {
-  const point = (p: { x: number; y: number }) => ({ x: p.x + dx, y: p.y + dy });
-  const rect = (r: PixelRect): PixelRect => ({ ...r, x: r.x + dx, y: r.y + dy });
-  return {
-    ...d,
-    boundingBox: rect(d.boundingBox),
-    centrePx: point(d.centrePx),
-    blobs: d.blobs.map((b) => ({ ...b, centroidPx: point(b.centroidPx), boundingBox: rect(b.boundingBox) })),
-  };
 }

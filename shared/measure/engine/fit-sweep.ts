@@ -38,7 +38,8 @@ export function fitSweep(frames: FrameAnalysis[], options: { sweepLabel: string;
         options.peaks === 2
           ? ' (the displacement method needs two sharp lens positions, so the object-to-sensor distance must exceed four focal lengths)'
           : '';
-      throw new MeasurementError('no-focus-peak', `no focus peak in ${options.sweepLabel}: ${error.message}${hint}`);
+      const detail = error.message.replace(/^no focus peak inside the sweep:\s*/, '');
+      throw new MeasurementError('no-focus-peak', `no focus peak in ${options.sweepLabel}: ${detail}${hint}`);
     }
     throw error;
   }
