@@ -11,13 +11,28 @@ export interface PlotFrameProps {
   children: ReactNode;
   /** Legend or notes under the plot. */
   footer?: ReactNode;
+  /**
+   * 'grid' (default) lays the millimetre-paper background behind the children;
+   * 'plain' leaves the area bare for a plot that draws its own axes and a grid
+   * aligned to its ticks (see MeasurementGrid).
+   */
+  surface?: 'grid' | 'plain';
 }
 
 /**
  * The frame every Paraxia plot sits in: a caption, a faint millimetre-paper
  * grid behind the drawing, and axis names. Scales and ticks belong to the plot.
  */
-export function PlotFrame({ title, xAxisLabel, yAxisLabel, heightClass = 'h-64', children, footer }: PlotFrameProps) {
+export function PlotFrame({
+  title,
+  xAxisLabel,
+  yAxisLabel,
+  heightClass = 'h-64',
+  children,
+  footer,
+  surface = 'grid',
+}: PlotFrameProps) {
+  const areaClasses = surface === 'grid' ? 'plot-grid overflow-hidden rounded-hair border border-rule' : '';
   return (
     <figure className="rounded-sheet border border-rule bg-sheet p-3">
       <figcaption className="mb-2 font-serif text-title-sm font-semibold">{title}</figcaption>
@@ -27,7 +42,7 @@ export function PlotFrame({ title, xAxisLabel, yAxisLabel, heightClass = 'h-64',
             <span className="-rotate-90 whitespace-nowrap text-caption text-ink-faint">{yAxisLabel}</span>
           </div>
         ) : null}
-        <div className={`plot-grid relative flex-1 overflow-hidden rounded-hair border border-rule ${heightClass}`}>
+        <div className={`relative min-w-0 flex-1 ${areaClasses} ${heightClass}`}>
           {children}
         </div>
       </div>
