@@ -9,7 +9,7 @@ import { mkdtempSync, symlinkSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { benchFixture } from '../../helpers/bench-fixtures';
+import { cachedBenchMeasurement as benchFixture } from '../../../scripts/synth/cached-bench-measurement';
 
 const root = path.resolve(import.meta.dirname, '../../..');
 

@@ -7,7 +7,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { measureFolder } from '../../../server/measure/measure-folder';
-import { benchFixture } from '../../helpers/bench-fixtures';
+import { cachedBenchMeasurement as benchFixture } from '../../../scripts/synth/cached-bench-measurement';
 import type { BenchPresetName } from '../../../scripts/synth/presets';
 
 const relative = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
