@@ -1,9 +1,12 @@
 import { pathToFileURL } from 'node:url';
 import { createDatabase, type Database } from '../../server/db/client';
 import { parseEnv } from '../../server/env';
+import { todayIsoDate } from '../../server/services/equipment';
 import { createPasswordHasher, type PasswordHasher } from '../../server/services/passwords';
 import { seedDemoOrganisations, type DemoOrganisationKey } from './demo-organisations';
 import { demoPeople, seedDemoPeople } from './demo-people';
+import { seedDemoEquipment } from './demo-equipment';
+import { seedDemoWorkOrders } from './demo-work-orders';
 
 export interface SeedContext {
   db: Database;
@@ -11,6 +14,12 @@ export interface SeedContext {
   /** Filled in by earlier steps for later ones. */
   organisationIds: Partial<Record<DemoOrganisationKey, string>>;
   personIdsByEmail: Record<string, string>;
+  /** The seeding day, YYYY-MM-DD; demo due dates count from it. */
+  today: string;
+  equipmentIdsByIdentifier: Record<string, string>;
+  workOrderIdsByKey: Record<string, string>;
+  /** Keys as in `demoLensesByKey` (scripts/seed/demo-work-orders.ts). */
+  lensIdsByKey: Record<string, string>;
   report(message: string): void;
 }
 
@@ -19,6 +28,9 @@ export interface SeedStep {
   name: string;
   run(context: SeedContext): Promise<void>;
 }
+
+/** The demo person recorded as creating the demo work orders and lenses. */
+const DEMO_TECHNICIAN_EMAIL = 'tech@larkspur-lab.example';
 
 /** In order; later demo data (equipment, work orders, measurements) appends steps here. */
 export const demoSeedSteps: SeedStep[] = [
@@ -39,27 +51,65 @@ export const demoSeedSteps: SeedStep[] = [
       if (created.length > 0) context.report(`created ${created.length} demo account(s)`);
     },
   },
+  {
+    name: 'equipment',
+    async run(context) {
+      const { idByIdentifier, created } = await seedDemoEquipment(context.db, { today: context.today });
+      context.equipmentIdsByIdentifier = idByIdentifier;
+      if (created > 0) context.report(`registered ${created} demo equipment item(s)`);
+    },
+  },
+  {
+    name: 'work orders and lenses',
+    async run(context) {
+      const technicianId = context.personIdsByEmail[DEMO_TECHNICIAN_EMAIL];
+      if (!technicianId) throw new Error(`The demo technician ${DEMO_TECHNICIAN_EMAIL} must be seeded before the work orders.`);
+      const { workOrderIdsByKey, lensIdsByKey, created } = await seedDemoWorkOrders(context.db, {
+        organisationIds: context.organisationIds as Record<DemoOrganisationKey, string>,
+        technicianId,
+        today: context.today,
+      });
+      context.workOrderIdsByKey = workOrderIdsByKey;
+      context.lensIdsByKey = lensIdsByKey;
+      if (created > 0) context.report(`created ${created} demo work order(s)`);
+    },
+  },
 ];
 
 export interface SeedDemoResult {
   organisationIds: Partial<Record<DemoOrganisationKey, string>>;
   personIdsByEmail: Record<string, string>;
+  equipmentIdsByIdentifier: Record<string, string>;
+  workOrderIdsByKey: Record<string, string>;
+  lensIdsByKey: Record<string, string>;
 }
 
 export async function seedDemo(options: {
   db: Database;
   passwords: PasswordHasher;
   report?: (message: string) => void;
+  /** YYYY-MM-DD; defaults to today. */
+  today?: string;
 }): Promise<SeedDemoResult> {
   const context: SeedContext = {
     db: options.db,
     passwords: options.passwords,
     organisationIds: {},
     personIdsByEmail: {},
+    today: options.today ?? todayIsoDate(),
+    equipmentIdsByIdentifier: {},
+    workOrderIdsByKey: {},
+    lensIdsByKey: {},
     report: options.report ?? (() => undefined),
   };
   for (const step of demoSeedSteps) await step.run(context);
-  return { organisationIds: context.organisationIds, personIdsByEmail: context.personIdsByEmail };
+  return {
+    organisationIds: context.organisationIds,
+    personIdsByEmail: context.personIdsByEmail,
+    equipmentIdsByIdentifier: context.equipmentIdsByIdentifier,
+    workOrderIdsByKey: context.workOrderIdsByKey,
+    lensIdsByKey: context.lensIdsByKey,
+  };
 }
 
 /** The lines `npm start` prints so people can try every role. */

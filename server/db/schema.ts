@@ -328,3 +328,19 @@ export const analysisRuns = pgTable(
   },
   (table) => [uniqueIndex('analysis_runs_measurement_version_idx').on(table.measurementId, table.version)],
 );
+
+/**
+ * The last human-facing number handed out per kind and year (WO-2026-0001,
+ * M-2026-0001, …). The row is bumped inside the transaction that uses the
+ * number, so concurrent requests queue on its lock and a rolled-back insert
+ * leaves no gap (a Postgres sequence would).
+ */
+export const numberCounters = pgTable(
+  'number_counters',
+  {
+    kind: text('kind').notNull(),
+    year: integer('year').notNull(),
+    lastValue: integer('last_value').notNull(),
+  },
+  (table) => [primaryKey({ columns: [table.kind, table.year] })],
+);

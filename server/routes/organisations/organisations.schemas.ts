@@ -1,0 +1,1 @@
+export { listOrganisationsQuery, type ListOrganisationsQuery } from '../../../shared/schemas/work-orders';
