@@ -6,6 +6,12 @@ import { OverviewRoute } from '@/app/routes/app/overview';
 import { RequireRole } from '@/app/routes/app/require-role';
 import { ReviewRoute } from '@/app/routes/app/review';
 import { SystemRoute } from '@/app/routes/app/system';
+import { EquipmentRoute } from '@/app/routes/app/equipment';
+import { LensDetailRoute } from '@/app/routes/app/lens-detail';
+import { WorkOrderDetailRoute } from '@/app/routes/app/work-order-detail';
+import { WorkOrdersRoute } from '@/app/routes/app/work-orders';
+import { MeasurementRoute } from '@/app/routes/app/measurement';
+import { NewMeasurementRoute } from '@/app/routes/app/measurement-new';
 import { NotFoundRoute } from '@/app/routes/not-found';
 import { RouteErrorPage } from '@/app/routes/route-error';
 import { SignInRoute } from '@/app/routes/sign-in';
@@ -18,6 +24,54 @@ const router = createBrowserRouter([
     errorElement: <RouteErrorPage />,
     children: [
       { index: true, element: <OverviewRoute /> },
+      {
+        path: 'work-orders',
+        element: (
+          <RequireRole roles={['technician', 'reviewer', 'admin', 'client']}>
+            <WorkOrdersRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'work-orders/:workOrderId',
+        element: (
+          <RequireRole roles={['technician', 'reviewer', 'admin', 'client']}>
+            <WorkOrderDetailRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'lenses/:lensId',
+        element: (
+          <RequireRole roles={['technician', 'reviewer', 'admin', 'client']}>
+            <LensDetailRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'equipment',
+        element: (
+          <RequireRole roles={['technician', 'reviewer', 'admin']}>
+            <EquipmentRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'measurements/new',
+        element: (
+          <RequireRole roles={['technician']}>
+            <NewMeasurementRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'measurements/:measurementId',
+        element: (
+          <RequireRole roles={['technician', 'reviewer', 'admin']}>
+            <MeasurementRoute />
+          </RequireRole>
+        ),
+      },
       {
         path: 'bench',
         element: (

@@ -104,11 +104,9 @@ function fallbackMessage(status: number, retryAfterSeconds: number | null): stri
   }
 }
 
-async function readBody(response: Response): Promise<unknown> {
-  if (response.status === 204 || response.status === 205) return undefined;
-  const text = await response.text();
-  if (text === '') return undefined;
-  const contentType = response.headers.get('content-type') ?? '';
+/** A response body as text, parsed as JSON when the server says it is JSON. */
+export function parseAnswerText(status: number, text: string, contentType: string): unknown {
+  if (status === 204 || status === 205 || text === '') return undefined;
   if (contentType.includes('json')) {
     try {
       return JSON.parse(text);
@@ -118,6 +116,30 @@ async function readBody(response: Response): Promise<unknown> {
   }
   return text;
 }
+
+async function readBody(response: Response): Promise<unknown> {
+  if (response.status === 204 || response.status === 205) return undefined;
+  return parseAnswerText(response.status, await response.text(), response.headers.get('content-type') ?? '');
+}
+
+export interface FailedAnswer {
+  status: number;
+  /** The parsed body (see parseAnswerText). */
+  body: unknown;
+  retryAfterHeader: string | null;
+  nowMs: number;
+}
+
+/** The ApiError for a non-2xx answer: the server's own sentence when it sent one. Shared by fetch and upload requests. */
+export function apiErrorFromAnswer({ status, body, retryAfterHeader, nowMs }: FailedAnswer): ApiError {
+  const retryAfterSeconds = parseRetryAfterSeconds(retryAfterHeader, nowMs);
+  if (isServerErrorBody(body)) {
+    return new ApiError({ status, message: body.error.message, fields: body.error.fields, retryAfterSeconds, body });
+  }
+  return new ApiError({ status, message: fallbackMessage(status, retryAfterSeconds), retryAfterSeconds, body });
+}
+
+export const UNREACHABLE_SERVER_MESSAGE = 'Could not reach the Paraxia server. Check the network connection and try again.';
 
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 
@@ -141,6 +163,8 @@ export interface ApiClient {
   put<T>(path: string, body?: unknown, options?: Omit<RequestOptions, 'body'>): Promise<T>;
   patch<T>(path: string, body?: unknown, options?: Omit<RequestOptions, 'body'>): Promise<T>;
   delete<T>(path: string, options?: Omit<RequestOptions, 'body'>): Promise<T>;
+  /** The CSRF token for a state-changing request made outside this client (e.g. an upload); primes it when missing. */
+  csrfToken(): Promise<string | null>;
 }
 
 export function createApiClient(options: ApiClientOptions = {}): ApiClient {
@@ -191,30 +215,16 @@ export function createApiClient(options: ApiClientOptions = {}): ApiClient {
       });
     } catch (cause) {
       if (cause instanceof DOMException && cause.name === 'AbortError') throw cause;
-      throw new ApiError({
-        status: 0,
-        message: 'Could not reach the Paraxia server. Check the network connection and try again.',
-      });
+      throw new ApiError({ status: 0, message: UNREACHABLE_SERVER_MESSAGE });
     }
 
     const parsed = await readBody(response);
     if (response.ok) return parsed as T;
-
-    const retryAfterSeconds = parseRetryAfterSeconds(response.headers.get('retry-after'), nowMs());
-    if (isServerErrorBody(parsed)) {
-      throw new ApiError({
-        status: response.status,
-        message: parsed.error.message,
-        fields: parsed.error.fields,
-        retryAfterSeconds,
-        body: parsed,
-      });
-    }
-    throw new ApiError({
+    throw apiErrorFromAnswer({
       status: response.status,
-      message: fallbackMessage(response.status, retryAfterSeconds),
-      retryAfterSeconds,
       body: parsed,
+      retryAfterHeader: response.headers.get('retry-after'),
+      nowMs: nowMs(),
     });
   }
 
@@ -224,6 +234,7 @@ export function createApiClient(options: ApiClientOptions = {}): ApiClient {
     put: (path, body, o) => request('PUT', path, { ...o, body }),
     patch: (path, body, o) => request('PATCH', path, { ...o, body }),
     delete: (path, o) => request('DELETE', path, o),
+    csrfToken,
   };
 }
 

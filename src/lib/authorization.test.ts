@@ -22,9 +22,10 @@ describe('authorization', () => {
 
   it('navigationFor lists only the pages a person’s roles reach', () => {
     const client = navigationFor({ roles: ['client'] });
-    expect(client.flatMap((group) => group.entries.map((entry) => entry.to))).toEqual(['/orders']);
+    expect(client.flatMap((group) => group.entries.map((entry) => entry.to))).toEqual(['/orders', '/work-orders']);
     const labLead = navigationFor({ roles: ['admin', 'reviewer'] });
-    expect(labLead.flatMap((group) => group.entries.map((entry) => entry.to))).toEqual(['/', '/review', '/system']);
+    expect(labLead.flatMap((group) => group.entries.map((entry) => entry.to))).toEqual(['/', '/review', '/system', '/work-orders', '/equipment']);
+    expect(navigationFor({ roles: [] })).toEqual([]);
   });
 
   it('hasAnyRole and describeRoles read a person’s roles', () => {

@@ -52,6 +52,11 @@ export function navigationFor(user: Pick<User, 'roles'>): NavigationGroup[] {
     const home = ROLE_HOMES[role];
     groups.push({ label: home.group, entries: [{ label: home.label, to: home.path }] });
   }
+  // The records the work runs through; a client's work-order list is filtered to its own organisation by the server.
+  const records: NavigationGroup['entries'] = [];
+  if (roles.length > 0) records.push({ label: 'Work orders', to: '/work-orders' });
+  if (hasAnyRole({ roles }, ['technician', 'reviewer', 'admin'])) records.push({ label: 'Equipment', to: '/equipment' });
+  if (records.length > 0) groups.push({ label: 'Records', entries: records });
   return groups;
 }
 
