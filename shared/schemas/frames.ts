@@ -97,9 +97,9 @@ function shown(name: string): string {
  */
 export function sanitiseFrameFileName(originalName: string): SanitisedFrameFileName {
   const lastSegment = originalName.normalize('NFC').split(/[/\\]/).pop() ?? '';
-  let name = lastSegment.replace(CONTROL_CHARACTERS, '').replace(PATH_CHARACTERS, '').trim().replace(/^\.+/, '').trim();
-  const dot = name.lastIndexOf('.');
-  const extension = dot >= 0 ? name.slice(dot).toLowerCase() : '';
+  const cleaned = lastSegment.replace(CONTROL_CHARACTERS, '').replace(PATH_CHARACTERS, '').trim();
+  const dot = cleaned.lastIndexOf('.');
+  const extension = dot >= 0 ? cleaned.slice(dot).toLowerCase() : '';
   const format = frameFileExtensions[extension];
   if (!format) {
     return {
@@ -107,7 +107,7 @@ export function sanitiseFrameFileName(originalName: string): SanitisedFrameFileN
       message: `The file ${shown(originalName)} is not an image Paraxia reads: its name must end in ${FRAME_EXTENSIONS_SENTENCE}.`,
     };
   }
-  let stem = name.slice(0, dot).trim();
+  let stem = cleaned.slice(0, dot).replace(/^[\s.]+/, '').trim();
   if (stem === '') {
     return {
       ok: false,
@@ -116,8 +116,7 @@ export function sanitiseFrameFileName(originalName: string): SanitisedFrameFileN
   }
   const room = FRAME_FILE_NAME_MAX_LENGTH - extension.length;
   if (stem.length > room) stem = Array.from(stem).slice(0, room).join('').trim();
-  name = `${stem}${name.slice(dot)}`;
-  return { ok: true, fileName: name, format };
+  return { ok: true, fileName: `${stem}${cleaned.slice(dot)}`, format };
 }
 
 const naturalCollator = new Intl.Collator('en', { numeric: true, sensitivity: 'variant' });

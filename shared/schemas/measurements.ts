@@ -310,8 +310,14 @@ export const listMeasurementsQuery = z.strictObject({
     .transform((value) => (value ? value : undefined)),
   status: z
     .string({ error: 'Field "status" must be text.' })
-    .transform((value) => value.split(',').map((part) => part.trim()).filter(Boolean))
-    .pipe(z.array(z.enum(measurementStatuses, { error: `Field "status" must be one or more of: ${measurementStatuses.join(', ')} (comma-separated).` })))
+    .transform((value, context) => {
+      const parts = value.split(',').map((part) => part.trim()).filter(Boolean);
+      if (parts.some((part) => !(measurementStatuses as readonly string[]).includes(part))) {
+        context.addIssue({ code: 'custom', message: `Field "status" must be one or more of: ${measurementStatuses.join(', ')} (comma-separated).` });
+        return z.NEVER;
+      }
+      return parts as MeasurementStatus[];
+    })
     .optional(),
   mine: z
     .enum(['true', 'false'], { error: 'Field "mine" must be true or false.' })

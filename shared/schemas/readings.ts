@@ -109,7 +109,8 @@ function splitColumns(line: string): { cells: string[]; separator: 'tab' | 'semi
   if (line.includes('\t')) return { cells: line.split('\t'), separator: 'tab' };
   if (line.includes(';')) return { cells: line.split(';'), separator: 'semicolon' };
   if (line.includes(',')) return { cells: line.split(','), separator: 'comma' };
-  const trimmed = line.trim();
+  // A unit after the reading ("448.5 mm") belongs to the reading, not to a third column.
+  const trimmed = line.trim().replace(/\s+mm$/i, 'mm');
   // With spaces as separator the reading is the last word, so a file name may itself contain spaces.
   const lastSpace = trimmed.search(/\s+\S+$/);
   if (lastSpace < 0) return { cells: [trimmed], separator: 'space' };
