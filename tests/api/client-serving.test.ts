@@ -45,7 +45,7 @@ describe('serving the built client', () => {
   });
 
   it('never answers an /api path with index.html', async () => {
-    const response = await request(testApp.app).get('/api/work-orders');
+    const response = await request(testApp.app).get('/api/no-such-route');
     expect(response.status).toBe(404);
     expect(response.headers['content-type']).toMatch(/application\/json/);
   });

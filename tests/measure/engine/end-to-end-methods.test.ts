@@ -40,7 +40,7 @@ describe('the engine recovers the generated truth for every method', { timeout: 
       } else {
         expect(relative(sweep.magnification as number, truth.sweeps[0].focus[0].magnification)).toBeLessThan(0.002);
       }
-      expect(Math.abs((sweep.bestFocusPositionMm as number) - truth.sweeps[0].bestFocusPositionMm)).toBeLessThan(0.05);
+      expect(Math.abs((sweep.bestFocusPositionMm as number) - (truth.sweeps[0].bestFocusPositionMm as number))).toBeLessThan(0.05);
       // The budget is a real budget: contributions add in quadrature to the combined uncertainty (no correlated inputs here).
       const quadrature = Math.sqrt(result.uncertaintyBudget.reduce((s, row) => s + row.contributionMm ** 2, 0));
       expect(quadrature).toBeCloseTo(result.standardUncertaintyMm, 6);

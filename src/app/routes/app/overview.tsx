@@ -8,13 +8,14 @@ import { useCurrentUser } from '@/features/auth/api/get-current-user';
 import { ClientOrdersPanel } from '@/features/client-orders/components/client-orders-panel';
 import { SystemHealthPanel } from '@/features/health/components/system-health-panel';
 import { OpenWorkPanel } from '@/features/open-work/components/open-work-panel';
+import { MeasurementStatusMark } from '@/features/measurements/components/measurement-status-mark';
 import { PeopleTable } from '@/features/people/components/people-table';
 import { ReviewQueuePanel } from '@/features/review-queue/components/review-queue-panel';
 
 function RolePanel({ home, user }: { home: RoleHome; user: User }) {
   switch (home.role) {
     case 'technician':
-      return <OpenWorkPanel />;
+      return <OpenWorkPanel statusMark={(status) => <MeasurementStatusMark status={status} />} />;
     case 'reviewer':
       return <ReviewQueuePanel />;
     case 'client':
