@@ -75,7 +75,7 @@ const demoCamera: BenchCamera = {
 
 /** The generator's targets, matching the register's TGT-DP6, TGT-SQ4 and TGT-DP1.6. */
 const dotPair6 = { pattern: 'dot-pair', sizeMm: 6, sizeUncertaintyMm: 0.0015, dotDiameterMm: 1.2, centreOffsetMm: { x: 0.3, y: -0.2 } } as const;
-const square4 = { pattern: 'square', sizeMm: 4, sizeUncertaintyMm: 0.0012, rotationDeg: 4, centreOffsetMm: { x: 0.2, y: 0.3 } } as const;
+const square4 = { pattern: 'square', sizeMm: 4, sizeUncertaintyMm: 0.0012, rotationDeg: 4, centreOffsetMm: { x: 0.1, y: -0.05 } } as const;
 const dotPair1p6 = { pattern: 'dot-pair', sizeMm: 1.6, sizeUncertaintyMm: 0.001, dotDiameterMm: 0.35, centreOffsetMm: { x: 0.05, y: -0.04 } } as const;
 
 export interface DemoMeasurementPlan {
@@ -98,8 +98,8 @@ export interface DemoMeasurementPlan {
 const RAIL = 'RAIL-1';
 const CAMERA = 'CAM-A1';
 
-/** Focal lengths of the six QI-PCX-100 lenses (nominal 100 mm ± 1 %): four inside the band, two just outside. */
-const pcxFocalLengthsMm = [99.62, 100.31, 100.74, 99.18, 101.27, 98.71];
+/** Focal lengths of the six QI-PCX-100 lenses (nominal 100 mm ± 1 %, guarded): three well inside, one inside but within its uncertainty of the limit, two just outside. */
+const pcxFocalLengthsMm = [99.62, 100.31, 100.985, 99.18, 101.27, 98.71];
 
 function finiteConjugatePlan(serial: number, focalLengthMm: number): DemoMeasurementPlan {
   const lensKey = `pcx-100-${String(serial).padStart(2, '0')}`;
@@ -225,7 +225,7 @@ export const demoMeasurementPlans: readonly DemoMeasurementPlan[] = [
       camera: demoCamera,
       target: square4,
       collimator: { focalLengthMm: 400, focalLengthUncertaintyMm: 0.4 },
-      sweeps: [{ lensPositionMm: 550, framesPerFocus: 15, stepMm: 0.35 }],
+      sweeps: [{ lensPositionMm: 550, framesPerFocus: 15, stepMm: 0.25 }],
     },
   },
 ];

@@ -1,12 +1,15 @@
 import { pathToFileURL } from 'node:url';
 import { createDatabase, type Database } from '../../server/db/client';
 import { parseEnv } from '../../server/env';
+import { createLogger } from '../../server/services/logger';
+import { createObjectStorage } from '../../server/services/object-storage';
 import { todayIsoDate } from '../../server/services/equipment';
 import { createPasswordHasher, type PasswordHasher } from '../../server/services/passwords';
 import { seedDemoOrganisations, type DemoOrganisationKey } from './demo-organisations';
 import { demoPeople, seedDemoPeople } from './demo-people';
 import { seedDemoEquipment } from './demo-equipment';
 import { seedDemoWorkOrders } from './demo-work-orders';
+import { seedDemoMeasurements, type DemoMeasurementDeps } from './demo-measurements';
 
 export interface SeedContext {
   db: Database;
@@ -20,6 +23,8 @@ export interface SeedContext {
   workOrderIdsByKey: Record<string, string>;
   /** Keys as in `demoLensesByKey` (scripts/seed/demo-work-orders.ts). */
   lensIdsByKey: Record<string, string>;
+  /** Object storage, the pool and a logger, for steps that store frames and queue analyses; absent, those steps are skipped. */
+  services?: Omit<DemoMeasurementDeps, 'db'>;
   report(message: string): void;
 }
 
@@ -74,6 +79,30 @@ export const demoSeedSteps: SeedStep[] = [
       if (created > 0) context.report(`created ${created} demo work order(s)`);
     },
   },
+  {
+    name: 'measurements',
+    async run(context) {
+      if (!context.services) {
+        context.report('demo measurements skipped (no object storage given)');
+        return;
+      }
+      const technicianId = context.personIdsByEmail[DEMO_TECHNICIAN_EMAIL];
+      if (!technicianId) throw new Error(`The demo technician ${DEMO_TECHNICIAN_EMAIL} must be seeded before the measurements.`);
+      const { created, framesStored, analysesQueued } = await seedDemoMeasurements(
+        { db: context.db, ...context.services },
+        {
+          lensIdsByKey: context.lensIdsByKey,
+          equipmentIdsByIdentifier: context.equipmentIdsByIdentifier,
+          technicianId,
+          today: context.today,
+          report: context.report,
+        },
+      );
+      if (created + framesStored + analysesQueued > 0) {
+        context.report(`created ${created} demo measurement(s), stored ${framesStored} frame(s), queued ${analysesQueued} analysis run(s)`);
+      }
+    },
+  },
 ];
 
 export interface SeedDemoResult {
@@ -90,6 +119,8 @@ export async function seedDemo(options: {
   report?: (message: string) => void;
   /** YYYY-MM-DD; defaults to today. */
   today?: string;
+  /** Needed for the demo measurements (frames in object storage, analyses queued). */
+  services?: Omit<DemoMeasurementDeps, 'db'>;
 }): Promise<SeedDemoResult> {
   const context: SeedContext = {
     db: options.db,
@@ -100,6 +131,7 @@ export async function seedDemo(options: {
     equipmentIdsByIdentifier: {},
     workOrderIdsByKey: {},
     lensIdsByKey: {},
+    services: options.services,
     report: options.report ?? (() => undefined),
   };
   for (const step of demoSeedSteps) await step.run(context);
@@ -122,10 +154,19 @@ export function demoSignInLines(): string[] {
 
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
   const env = parseEnv();
-  const { pool, db } = createDatabase({ databaseUrl: env.DATABASE_URL, maxConnections: 2 });
-  seedDemo({ db, passwords: createPasswordHasher({ rounds: env.PASSWORD_HASH_ROUNDS }), report: (m) => console.error(m) })
+  const { pool, db } = createDatabase({ databaseUrl: env.DATABASE_URL, maxConnections: 5 });
+  const storage = createObjectStorage(env);
+  seedDemo({
+    db,
+    passwords: createPasswordHasher({ rounds: env.PASSWORD_HASH_ROUNDS }),
+    report: (m) => console.error(m),
+    services: { pool, storage, log: createLogger({ level: 'warn', name: 'seed' }) },
+  })
     .then(() => console.error(demoSignInLines().join('\n')))
-    .finally(() => pool.end())
+    .finally(() => {
+      storage.close();
+      return pool.end();
+    })
     .catch((error: Error) => {
       console.error(`Seeding failed: ${error.message}`);
       process.exitCode = 1;

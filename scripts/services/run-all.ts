@@ -8,6 +8,8 @@ import { existsSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { mkdir } from 'node:fs/promises';
 import path from 'node:path';
 import { createDatabase } from '../../server/db/client';
+import { createLogger } from '../../server/services/logger';
+import { createObjectStorage } from '../../server/services/object-storage';
 import { createPasswordHasher } from '../../server/services/passwords';
 import { demoSignInLines, seedDemo } from '../seed/seed-demo';
 import { buildClient, type ClientBuild } from './client-build';
@@ -122,10 +124,25 @@ async function main(): Promise<void> {
   if (stopping) return;
 
   const passwordHashRounds = countFromEnv('PASSWORD_HASH_ROUNDS', 12);
-  const { pool, db } = createDatabase({ databaseUrl: stack.env.DATABASE_URL, maxConnections: 2 });
+  // Frame uploads of the demo measurements run a few at a time, each with its own transaction.
+  const { pool, db } = createDatabase({ databaseUrl: stack.env.DATABASE_URL, maxConnections: 5 });
+  const storage = createObjectStorage({
+    S3_ENDPOINT: stack.env.S3_ENDPOINT,
+    S3_REGION: stack.env.S3_REGION,
+    S3_BUCKET: stack.env.S3_BUCKET,
+    S3_ACCESS_KEY_ID: stack.env.S3_ACCESS_KEY_ID,
+    S3_SECRET_ACCESS_KEY: stack.env.S3_SECRET_ACCESS_KEY,
+    S3_FORCE_PATH_STYLE: true,
+  });
   try {
-    await seedDemo({ db, passwords: createPasswordHasher({ rounds: passwordHashRounds }), report: (m) => log.step(`Seed: ${m}`) });
+    await seedDemo({
+      db,
+      passwords: createPasswordHasher({ rounds: passwordHashRounds }),
+      report: (m) => log.step(`Seed: ${m}`),
+      services: { pool, storage, log: createLogger({ level: 'warn', name: 'seed' }) },
+    });
   } finally {
+    storage.close();
     await pool.end();
   }
 

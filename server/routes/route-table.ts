@@ -5,10 +5,32 @@ import { requireRole, requireSignedIn } from '../middleware/require-role';
 import { authRoutes } from './auth/auth.routes';
 import { healthRoutes } from './health/health.routes';
 import { peopleRoutes } from './people/people.routes';
+import { equipmentRoutes } from './equipment/equipment.routes';
+import { lensRoutes } from './lenses/lenses.routes';
+import { organisationRoutes } from './organisations/organisations.routes';
+import { partNumberRoutes } from './part-numbers/part-numbers.routes';
+import { workOrderRoutes } from './work-orders/work-orders.routes';
+import { measurementRoutes } from './measurements/measurements.routes';
+import { sweepRoutes } from './sweeps/sweeps.routes';
+import { frameRoutes } from './frames/frames.routes';
+import { analysesRoutes } from './analyses/analyses.routes';
 import type { RouteAccess, RouteDefinition, RouteSpec } from './route-definition';
 
 /** Every API route, and nothing registers a route any other way. */
-export const routeDefinitions: readonly RouteDefinition[] = [...healthRoutes, ...authRoutes, ...peopleRoutes];
+export const routeDefinitions: readonly RouteDefinition[] = [
+  ...healthRoutes,
+  ...authRoutes,
+  ...peopleRoutes,
+  ...organisationRoutes,
+  ...workOrderRoutes,
+  ...lensRoutes,
+  ...partNumberRoutes,
+  ...equipmentRoutes,
+  ...measurementRoutes,
+  ...sweepRoutes,
+  ...frameRoutes,
+  ...analysesRoutes,
+];
 
 /** Who may call what: one row per route (method, path, roles). */
 export const routeTable: readonly RouteSpec[] = routeDefinitions.map(({ method, path, roles, summary }) => ({
