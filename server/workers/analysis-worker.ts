@@ -1,10 +1,10 @@
-import { mkdir } from 'node:fs/promises';
 /**
  * The analysis worker: takes analysis jobs from the queue one at a time and
  * runs the measurement engine on them. Start as many processes as there are
  * machines or cores to spare (PARAXIA_ANALYSIS_WORKERS under npm start); they
  * share the queue and never take the same job (pg-boss fetches with SKIP LOCKED).
  */
+import { mkdir } from 'node:fs/promises';
 import { pathToFileURL } from 'node:url';
 import { createDatabase } from '../db/client';
 import { loadEnvOrExit, type Env } from '../env';
