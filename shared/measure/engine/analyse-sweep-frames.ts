@@ -5,13 +5,12 @@ import { scaleTargetDetection, shiftTargetDetection } from '../target/target-det
 import { measureDotPair } from '../target/measure-dot-pair';
 import { measureSquare } from '../target/measure-square';
 import { focusMeasures } from '../focus/focus-measure';
-import { saturatedFraction } from '../image/saturated-fraction';
-import { regionMean } from '../image/region-mean';
+import { SATURATION_LEVEL_SHARE } from '../image/saturated-fraction';
 import { slantedEdgeMtf } from '../mtf/slanted-edge-mtf';
 import { squareEdgeRects } from '../mtf/square-edge-rects';
 import { FrameMissingError, FrameUnreadableError, MeasurementError } from './measurement-error';
 import type { FrameSource, ReducedFrame } from './frame-source';
-import { mapWithConcurrency } from './map-with-concurrency';
+import { mapWithReadAhead } from './map-with-read-ahead';
 
 export interface SweepFrameInput {
   file: string;
@@ -68,24 +67,29 @@ function isRejected<T>(value: T | { rejected: string }): value is { rejected: st
  * region size for the sweep, large enough for the widest blur.
  * Pass 2 (full resolution): in that region, per frame, the clipped share,
  * focus measures, target size and (square target) slanted-edge MTF50.
- * Frames are read with bounded concurrency and never all held at once.
+ * Frames are read ahead of the computation on `concurrency` lanes (decoding
+ * overlaps the measuring) and never all held at once.
  */
 export async function analyseSweepFrames(options: AnalyseSweepFramesOptions): Promise<SweepFramesResult> {
   const { frames, source, pattern } = options;
 
-  const located: Located[] = await mapWithConcurrency(frames, options.concurrency, async (frame) => {
-    if (options.excludedFiles.has(frame.file)) {
-      return { detection: null, reason: 'excluded', factor: 1, fullWidth: 0, fullHeight: 0 } satisfies Located;
-    }
-    const reduced = await readOrReject<ReducedFrame>(frame.file, () => source.readReduced(frame.file));
-    if (isRejected(reduced)) {
-      return { detection: null, reason: 'undecodable', detail: reduced.rejected, factor: 1, fullWidth: 0, fullHeight: 0 } satisfies Located;
-    }
-    const detection = detectTarget(reduced.image, { pattern, polarity: options.polarity });
-    const base = { factor: reduced.factor, fullWidth: reduced.fullWidth, fullHeight: reduced.fullHeight };
-    if (!detection) return { ...base, detection: null, reason: 'target-lost' } satisfies Located;
-    return { ...base, detection: scaleTargetDetection(detection, { factor: reduced.factor }) } satisfies Located;
-  });
+  const located: Located[] = await mapWithReadAhead(
+    frames,
+    options.concurrency,
+    async (frame) =>
+      options.excludedFiles.has(frame.file) ? null : readOrReject<ReducedFrame>(frame.file, () => source.readReduced(frame.file)),
+    (reduced): Located => {
+      if (reduced === null) return { detection: null, reason: 'excluded', factor: 1, fullWidth: 0, fullHeight: 0 };
+      if (isRejected(reduced)) {
+        return { detection: null, reason: 'undecodable', detail: reduced.rejected, factor: 1, fullWidth: 0, fullHeight: 0 };
+      }
+      const detection = detectTarget(reduced.image, { pattern, polarity: options.polarity });
+      source.recycle?.(reduced.image);
+      const base = { factor: reduced.factor, fullWidth: reduced.fullWidth, fullHeight: reduced.fullHeight };
+      if (!detection) return { ...base, detection: null, reason: 'target-lost' };
+      return { ...base, detection: scaleTargetDetection(detection, { factor: reduced.factor }) };
+    },
+  );
 
   const found = located.filter((l) => l.detection !== null);
   if (found.length === 0) {
@@ -100,31 +104,45 @@ export async function analyseSweepFrames(options: AnalyseSweepFramesOptions): Pr
   const polarity = options.polarity ?? majorityPolarity(found.map((l) => l.detection!.polarity));
   const regionSidePx = chooseRegionSide(found.map((l) => l.detection!));
 
-  const results: FrameAnalysis[] = await mapWithConcurrency(frames, options.concurrency, async (frame, index) => {
+  const regionOf = (index: number): PixelRect | null => {
     const loc = located[index];
-    const base: FrameAnalysis = {
-      file: frame.file,
-      positionMm: frame.positionMm,
-      status: 'rejected',
-      focusValue: null,
-      sizePx: null,
-      mtf50CyclesPerPixel: null,
-      saturatedFraction: null,
-      meanLevel: null,
-      overlay: null,
-      focusResidual: null,
-    };
-    try {
-      if (!loc.detection) return { ...base, reason: loc.reason ?? 'target-lost' };
-      if (loc.detection.polarity !== polarity) return { ...base, reason: 'target-lost' as const };
-      const rect = regionAround(loc.detection.centrePx, regionSidePx, loc.fullWidth, loc.fullHeight);
-      const region = await readOrReject<GreyImage>(frame.file, () => source.readRegion(frame.file, rect));
-      if (isRejected(region)) return { ...base, reason: 'undecodable' as const };
-      return measureFrame(region, rect, loc.detection, { ...options, polarity }, base);
-    } finally {
-      options.onFrameDone(frame.file);
-    }
-  });
+    if (!loc.detection || loc.detection.polarity !== polarity) return null;
+    return regionAround(loc.detection.centrePx, regionSidePx, loc.fullWidth, loc.fullHeight);
+  };
+  const results: FrameAnalysis[] = await mapWithReadAhead(
+    frames,
+    options.concurrency,
+    async (frame, index) => {
+      const rect = regionOf(index);
+      return rect ? readOrReject<GreyImage>(frame.file, () => source.readRegion(frame.file, rect)) : null;
+    },
+    (region, frame, index): FrameAnalysis => {
+      const loc = located[index];
+      const base: FrameAnalysis = {
+        file: frame.file,
+        positionMm: frame.positionMm,
+        status: 'rejected',
+        focusValue: null,
+        sizePx: null,
+        mtf50CyclesPerPixel: null,
+        saturatedFraction: null,
+        meanLevel: null,
+        overlay: null,
+        focusResidual: null,
+      };
+      try {
+        const rect = regionOf(index);
+        if (!loc.detection) return { ...base, reason: loc.reason ?? 'target-lost' };
+        if (!rect || region === null) return { ...base, reason: 'target-lost' };
+        if (isRejected(region)) return { ...base, reason: 'undecodable' };
+        const measured = measureFrame(region, rect, loc.detection, { ...options, polarity }, base);
+        source.recycle?.(region);
+        return measured;
+      } finally {
+        options.onFrameDone(frame.file);
+      }
+    },
+  );
 
   return { frames: results, polarity, regionSidePx };
 }
@@ -136,12 +154,12 @@ function measureFrame(
   options: AnalyseSweepFramesOptions & { polarity: TargetPolarity },
   base: FrameAnalysis,
 ): FrameAnalysis {
-  const clipped = saturatedFraction(region, {});
-  const meanLevel = regionMean(region);
-  const withLevels = { ...base, saturatedFraction: clipped, meanLevel };
+  // One pass gives the focus measures, the mean level and the clipped share (the same level `saturatedFraction` uses).
+  const focus = focusMeasures(region, { normalise: true, saturationLevel: SATURATION_LEVEL_SHARE * region.maxValue });
+  const clipped = focus.saturatedFraction as number;
+  const withLevels = { ...base, saturatedFraction: clipped, meanLevel: focus.regionMeanIntensity };
   if (clipped > options.saturatedShareLimit) return { ...withLevels, reason: 'saturated' };
-
-  const measures = focusMeasures(region, { normalise: true }).measures;
+  const measures = focus.measures;
   const focusValue = measures[options.focusOperator];
   const local = shiftTargetDetection(detection, { originPx: { x: rect.x, y: rect.y } });
 

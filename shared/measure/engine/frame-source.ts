@@ -13,6 +13,11 @@ export interface FrameSource {
   readReduced(file: string): Promise<ReducedFrame>;
   /** A full-resolution crop of the frame. Throws FrameMissingError or FrameUnreadableError. */
   readRegion(file: string, rect: PixelRect): Promise<GreyImage>;
+  /**
+   * Optional: the engine has finished with an image this source returned and
+   * keeps no reference to it, so the source may reuse its pixel array.
+   */
+  recycle?(image: GreyImage): void;
 }
 
 export interface ReducedFrame {

@@ -1,5 +1,5 @@
 import type { MeasurementManifest } from '../../schemas/measurement-manifest';
-import { combineCorrelatedEstimates, solveFiniteConjugate } from '../solvers/solve-finite-conjugate';
+import { combineCorrelatedEstimates, finiteConjugateSolution, solveFiniteConjugate } from '../solvers/solve-finite-conjugate';
 import { solveMultiConjugate } from '../solvers/solve-multi-conjugate';
 import { solveDisplacement } from '../solvers/solve-displacement';
 import { solveCollimator } from '../solvers/solve-collimator';
@@ -106,41 +106,67 @@ function imagePositionMm(v: number[], s: SensorSweepInputs): number {
   return v[s.focusFitMm] + v[s.focusRailMm];
 }
 
+/** Writes every estimate of one quantity at the input values `v` into `out`. */
+type EstimatesInto = (v: number[], out: Float64Array) => void;
+
 /**
  * Combines correlated estimates of one quantity by generalised least squares.
  * The weights are fixed at the nominal input values, so the combined model
- * stays a plain function of the inputs for GUM and Monte Carlo.
+ * stays a plain function of the inputs for GUM and Monte Carlo. All
+ * `estimateCount` estimates come from one call, so a model evaluated per
+ * Monte Carlo draw solves each sweep once, and allocates nothing.
  */
-function combineEstimates(inputs: InputSet, estimates: ((v: number[]) => number)[]): (v: number[]) => number {
-  if (estimates.length === 1) return estimates[0];
+function combineEstimates(inputs: InputSet, estimateCount: number, estimatesInto: EstimatesInto): (v: number[]) => number {
+  const estimatesAt = (v: number[]) => {
+    const out = new Float64Array(estimateCount);
+    estimatesInto(v, out);
+    return Array.from(out);
+  };
   const x0 = inputs.values;
-  const g0 = estimates.map((g) => g(x0));
-  const jacobian = estimates.map((g) =>
-    inputs.inputs.map((input, j) => {
-      const h = input.standardUncertainty > 0 ? input.standardUncertainty * 1e-3 : 0;
-      if (h === 0) return 0;
-      const up = [...x0];
-      const down = [...x0];
-      up[j] += h;
-      down[j] -= h;
-      return (g(up) - g(down)) / (2 * h);
-    }),
-  );
+  const g0 = estimatesAt(x0);
+  const scratch = new Float64Array(estimateCount);
+  if (estimateCount === 1) {
+    return (v) => {
+      estimatesInto(v, scratch);
+      return scratch[0];
+    };
+  }
+  const sensitivities = inputs.inputs.map((input, j) => {
+    const h = input.standardUncertainty > 0 ? input.standardUncertainty * 1e-3 : 0;
+    if (h === 0) return g0.map(() => 0);
+    const up = [...x0];
+    const down = [...x0];
+    up[j] += h;
+    down[j] -= h;
+    const gUp = estimatesAt(up);
+    const gDown = estimatesAt(down);
+    return g0.map((_, k) => (gUp[k] - gDown[k]) / (2 * h));
+  });
+  const jacobian = g0.map((_, k) => sensitivities.map((column) => column[k]));
   const covariance = jacobian.map((ra) =>
     jacobian.map((rb) => ra.reduce((sum, a, j) => sum + a * rb[j] * inputs.inputs[j].standardUncertainty ** 2, 0)),
   );
   const degenerate = covariance.every((row) => row.every((c) => c === 0));
   const weights = degenerate ? g0.map(() => 1 / g0.length) : combineCorrelatedEstimates({ values: g0, covariance }).weights;
-  return (v) => estimates.reduce((sum, g, k) => sum + weights[k] * g(v), 0);
+  return (v) => {
+    estimatesInto(v, scratch);
+    let combined = 0;
+    for (let k = 0; k < estimateCount; k++) combined += weights[k] * scratch[k];
+    return combined;
+  };
 }
 
-function finiteConjugateEstimates(v: number[], s: SensorSweepInputs, c: Common) {
-  return solveFiniteConjugate({
+/** Both finite-conjugate estimates of one sweep; the options were checked at the nominal inputs, so draws skip the checks. */
+function finiteConjugateEstimates(v: number[], s: SensorSweepInputs, c: Common, checked: boolean) {
+  const options = {
     objectPositionMm: v[s.objectMm as number],
     lensPositionMm: v[s.lensMm],
     imagePositionMm: imagePositionMm(v, s),
     magnification: magnification(v, s, c),
-  });
+    frontOffsetMm: 0,
+    rearOffsetMm: 0,
+  };
+  return checked ? solveFiniteConjugate(options) : finiteConjugateSolution(options);
 }
 
 /** The pair (or single lens) as measured by the finite-conjugate or multi-conjugate route. */
@@ -151,17 +177,25 @@ function conjugateModel(manifest: MeasurementManifest, fits: SweepFits[], inputs
 
   if (!multi) {
     const estimates: MethodModel['estimates'] = [];
-    const parts: ((v: number[]) => number)[] = [];
     sweeps.forEach((s, i) => {
-      const fromPositions = (v: number[]) => finiteConjugateEstimates(v, s, common).fromPositionsMm;
-      const fromMagnification = (v: number[]) => finiteConjugateEstimates(v, s, common).fromMagnificationMm;
-      parts.push(fromPositions, fromMagnification);
       estimates.push(
-        { name: `from object and image distances, ${label(fits[i].index)}`, model: fromPositions },
-        { name: `from image distance and magnification, ${label(fits[i].index)}`, model: fromMagnification },
+        { name: `from object and image distances, ${label(fits[i].index)}`, model: (v) => finiteConjugateEstimates(v, s, common, true).fromPositionsMm },
+        {
+          name: `from image distance and magnification, ${label(fits[i].index)}`,
+          model: (v) => finiteConjugateEstimates(v, s, common, true).fromMagnificationMm,
+        },
       );
     });
-    return { focal: combineEstimates(inputs, parts), estimates, extras: [] as MethodModel['extras'], multi };
+    // Checked once at the nominal inputs (a bad manifest is reported there), then solved unchecked per evaluation.
+    for (const s of sweeps) finiteConjugateEstimates(inputs.values, s, common, true);
+    const allEstimates: EstimatesInto = (v, out) => {
+      for (let i = 0; i < sweeps.length; i++) {
+        const solution = finiteConjugateEstimates(v, sweeps[i], common, false);
+        out[2 * i] = solution.fromPositionsMm;
+        out[2 * i + 1] = solution.fromMagnificationMm;
+      }
+    };
+    return { focal: combineEstimates(inputs, 2 * sweeps.length, allEstimates), estimates, extras: [] as MethodModel['extras'], multi };
   }
 
   const railU = manifest.scale.uncertaintyMm;
@@ -251,8 +285,8 @@ export function buildMethodModel(manifest: MeasurementManifest, fits: SweepFits[
           bestFocusPositionMm: imagePositionMm(v, s),
           lensPositionMm: v[s.lensMm],
         });
-      const focal = combineEstimates(inputs, sweeps.map((s) => (v: number[]) => solveAt(v, s).focalLengthMm));
-      const bfd = combineEstimates(inputs, sweeps.map((s) => (v: number[]) => solveAt(v, s).backFocalDistanceMm));
+      const focal = combineEstimates(inputs, sweeps.length, (v, out) => sweeps.forEach((s, i) => (out[i] = solveAt(v, s).focalLengthMm)));
+      const bfd = combineEstimates(inputs, sweeps.length, (v, out) => sweeps.forEach((s, i) => (out[i] = solveAt(v, s).backFocalDistanceMm)));
       return { inputs, focalLength: focal, extras: [{ key: 'backFocalDistanceMm', model: bfd }], estimates: [], warnings };
     }
     case 'displacement': {
@@ -272,7 +306,7 @@ export function buildMethodModel(manifest: MeasurementManifest, fits: SweepFits[
           }),
           rail: inputs.add({ name: `rail reading at sharp position ${k + 1}, ${name}`, value: 0, standardUncertainty: railU, unit: 'mm' }),
         }));
-        return (v: number[]) =>
+        return (v: number[]): number =>
           solveDisplacement({
             objectPositionMm: v[objectMm],
             sensorPositionMm: v[sensorMm],
@@ -282,7 +316,8 @@ export function buildMethodModel(manifest: MeasurementManifest, fits: SweepFits[
       warnings.push(
         'The displacement method takes the principal planes as coincident; for a thick lens the result is biased by a quarter to a half of their separation.',
       );
-      return { inputs, focalLength: combineEstimates(inputs, parts), extras: [], estimates: [], warnings };
+      const focal = combineEstimates(inputs, parts.length, (v, out) => parts.forEach((part, i) => (out[i] = part(v))));
+      return { inputs, focalLength: focal, extras: [], estimates: [], warnings };
     }
     default:
       throw new MeasurementError('invalid-manifest', `invalid manifest: method ${(manifest as { method: string }).method} is not supported`);

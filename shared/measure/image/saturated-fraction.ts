@@ -1,6 +1,9 @@
 import type { GreyImage, PixelRect } from '../types';
 import { checkRectInsideImage } from './check-rect';
 
+/** Default clipping level, as a share of the image's full scale. */
+export const SATURATION_LEVEL_SHARE = 0.98;
+
 export interface SaturatedFractionOptions {
   rect?: PixelRect;
   /** Pixels at or above this value count as clipped; default 0.98 × maxValue. */
@@ -12,7 +15,7 @@ export function checkSaturatedFractionOptions(
   options: SaturatedFractionOptions = {},
 ): { rect: PixelRect; threshold: number } {
   const rect = checkRectInsideImage(image, options.rect);
-  const threshold = options.threshold ?? 0.98 * image.maxValue;
+  const threshold = options.threshold ?? SATURATION_LEVEL_SHARE * image.maxValue;
   if (!Number.isFinite(threshold)) {
     throw new RangeError(`threshold must be a finite number (got ${options.threshold}).`);
   }

@@ -46,8 +46,16 @@ export function checkSolveFiniteConjugateOptions(options: SolveFiniteConjugateOp
 }
 
 export function solveFiniteConjugate(options: SolveFiniteConjugateOptions): FiniteConjugateSolution {
-  const { objectPositionMm, lensPositionMm, imagePositionMm, magnification, frontOffsetMm, rearOffsetMm } =
-    checkSolveFiniteConjugateOptions(options);
+  return finiteConjugateSolution(checkSolveFiniteConjugateOptions(options));
+}
+
+/**
+ * `solveFiniteConjugate` without the option checks, for a model evaluated
+ * many times (a Monte Carlo draw) whose inputs were checked once at their
+ * nominal values. The geometric preconditions are still enforced.
+ */
+export function finiteConjugateSolution(options: Required<SolveFiniteConjugateOptions>): FiniteConjugateSolution {
+  const { objectPositionMm, lensPositionMm, imagePositionMm, magnification, frontOffsetMm, rearOffsetMm } = options;
   const objectDistanceMm = lensPositionMm + frontOffsetMm - objectPositionMm;
   const imageDistanceMm = imagePositionMm - (lensPositionMm + rearOffsetMm);
   if (!(objectDistanceMm > 0)) {

@@ -3,7 +3,19 @@ import { fitBackgroundSurface } from './fit-background-surface';
 import { histogram } from './histogram';
 import { labelComponents, type ConnectedComponent } from './label-components';
 import { otsuThreshold } from './otsu-threshold';
-import { quantileOfSorted } from './robust-statistics';
+import { quantileInPlace } from '../statistics/select-in-place';
+import { componentBoundingBox } from './component-bounding-box';
+import { ReusableArray } from '../image/reusable-array';
+
+// Scratch arrays of one detection (see ReusableArray); none of them leaves detectTarget.
+const scratch = {
+  differences: new ReusableArray((n) => new Float64Array(n)),
+  sampledResidual: new ReusableArray((n) => new Float64Array(n)),
+  sampledLevels: new ReusableArray((n) => new Float64Array(n)),
+  background: new ReusableArray((n) => new Float64Array(n)),
+  mask: new ReusableArray((n) => new Uint8Array(n)),
+  lowMask: new ReusableArray((n) => new Uint8Array(n)),
+};
 
 export interface DetectedBlob {
   /** Background-subtracted, signal-weighted centre of the blob's pixels above the threshold. */
@@ -87,13 +99,13 @@ function unionRect(rects: PixelRect[]): PixelRect {
 /** Standard deviation of white pixel noise from the median absolute difference of horizontal neighbours. */
 function noiseStdDevFromDifferences(signal: Float32Array, width: number, height: number): number {
   const step = Math.max(1, Math.floor((width * height) / 20_000));
-  const differences: number[] = [];
+  const differences = scratch.differences.take(Math.ceil((width * height - 1) / step));
+  let count = 0;
   for (let index = 0; index < width * height - 1; index += step) {
     if ((index + 1) % width === 0) continue;
-    differences.push(Math.abs(signal[index + 1] - signal[index]));
+    differences[count++] = Math.abs(signal[index + 1] - signal[index]);
   }
-  const sorted = Float64Array.from(differences).sort();
-  return (1.4826 * quantileOfSorted(sorted, 0.5)) / Math.SQRT2;
+  return (1.4826 * quantileInPlace(differences, 0.5, count)) / Math.SQRT2;
 }
 
 interface ScoredBlob {
@@ -119,30 +131,30 @@ export function detectTarget(image: GreyImage, options: DetectTargetOptions): Ta
   const pixelCount = width * height;
   if (width < 8 || height < 8) return null;
 
-  const { surface } = fitBackgroundSurface(image);
-  const residual = new Float32Array(pixelCount);
-  for (let k = 0; k < pixelCount; k++) residual[k] = data[k] - surface[k];
+  // The surface's own array becomes the residual.
+  const residual = fitBackgroundSurface(image).surface;
+  for (let k = 0; k < pixelCount; k++) residual[k] = data[k] - residual[k];
 
   const sampleStep = Math.max(1, Math.floor(pixelCount / 20_000));
-  const sampled: number[] = [];
-  const sampledLevels: number[] = [];
-  for (let k = 0; k < pixelCount; k += sampleStep) {
-    sampled.push(residual[k]);
-    sampledLevels.push(data[k]);
+  const sampleCount = Math.ceil(pixelCount / sampleStep);
+  const sampledResidual = scratch.sampledResidual.take(sampleCount);
+  const sampledLevels = scratch.sampledLevels.take(sampleCount);
+  for (let k = 0, s = 0; k < pixelCount; k += sampleStep, s++) {
+    sampledResidual[s] = residual[k];
+    sampledLevels[s] = data[k];
   }
-  const sortedResidual = Float64Array.from(sampled).sort();
   const noiseStdDev = noiseStdDevFromDifferences(residual, width, height);
-  const brightLevel = quantileOfSorted(Float64Array.from(sampledLevels).sort(), 0.999);
+  const brightLevel = quantileInPlace(sampledLevels, 0.999);
   const minContrast = Math.max(settings.minContrastToNoise * noiseStdDev, settings.minContrastFraction * Math.abs(brightLevel));
 
-  const split = splitByOtsu(residual, sortedResidual, settings.polarity, settings.maxTargetFraction, minContrast)
-    ?? splitByOutliers(residual, sortedResidual, settings.polarity, minContrast);
+  const split = splitByOtsu(residual, sampledResidual, settings.polarity, settings.maxTargetFraction, minContrast)
+    ?? splitByOutliers(residual, sampledResidual, settings.polarity, minContrast);
   if (!split) return null;
   const { polarity, backgroundLevel, targetLevel } = split;
   const sign = polarity === 'light-on-dark' ? 1 : -1;
   const threshold = (backgroundLevel + targetLevel) / 2;
 
-  const mask = new Uint8Array(pixelCount);
+  const mask = scratch.mask.take(pixelCount);
   for (let k = 0; k < pixelCount; k++) mask[k] = sign * (residual[k] - threshold) > 0 ? 1 : 0;
   const { labels, components } = labelComponents(mask, { width, height });
 
@@ -150,16 +162,17 @@ export function detectTarget(image: GreyImage, options: DetectTargetOptions): Ta
   const signalX = new Float64Array(components.length + 1);
   const signalY = new Float64Array(components.length + 1);
   const positiveSums = new Float64Array(components.length + 1);
-  for (let k = 0; k < pixelCount; k++) {
-    const label = labels[k];
-    if (label === 0) continue;
-    const signal = sign * (residual[k] - backgroundLevel);
-    signalSums[label] += signal;
-    if (signal > 0) {
-      const x = k % width;
-      positiveSums[label] += signal;
-      signalX[label] += signal * x;
-      signalY[label] += signal * ((k - x) / width);
+  for (let y = 0, k = 0; y < height; y++) {
+    for (let x = 0; x < width; x++, k++) {
+      const label = labels[k];
+      if (label === 0) continue;
+      const signal = sign * (residual[k] - backgroundLevel);
+      signalSums[label] += signal;
+      if (signal > 0) {
+        positiveSums[label] += signal;
+        signalX[label] += signal * x;
+        signalY[label] += signal * y;
+      }
     }
   }
   const plausible: ScoredBlob[] = [];
@@ -183,16 +196,16 @@ export function detectTarget(image: GreyImage, options: DetectTargetOptions): Ta
   const chosen = options.pattern === 'dot-pair' ? pickDotPair(plausible) : pickSquare(plausible);
   if (!chosen) return null;
 
+  // Only the components holding the chosen blobs matter, so they are filled from the blobs rather than all labelled.
   const lowLevel = backgroundLevel + sign * settings.blurExtentLevel * Math.min(...chosen.map((b) => b.contrast));
-  const lowMask = new Uint8Array(pixelCount);
+  const lowMask = scratch.lowMask.take(pixelCount);
   for (let k = 0; k < pixelCount; k++) lowMask[k] = sign * (residual[k] - lowLevel) > 0 ? 1 : 0;
-  const low = labelComponents(lowMask, { width, height });
-  const extentLabels = new Set(chosen.map((b) => low.labels[b.component.firstPixelIndex]));
   const boundingBox = unionRect(chosen.map((b) => b.component.boundingBox));
-  const blurExtentBox = unionRect([
-    boundingBox,
-    ...low.components.filter((c) => extentLabels.has(c.label)).map((c) => c.boundingBox),
-  ]);
+  const extentBoxes = chosen.flatMap((b) => {
+    const box = componentBoundingBox(lowMask, { width, height }, b.component.firstPixelIndex);
+    return box ? [box] : [];
+  });
+  const blurExtentBox = unionRect([boundingBox, ...extentBoxes]);
 
   const blobs: DetectedBlob[] = chosen.map((b) => ({
     centroidPx: { ...b.weightedCentroidPx },
@@ -215,9 +228,11 @@ interface ClassSplit {
 
 /** Median residual of the pixels on the target side of `level` (all of them: a small target has few samples). */
 function targetSideMedian(residual: Float32Array, level: number, sign: number): number {
-  const values: number[] = [];
-  for (let k = 0; k < residual.length; k++) if (sign * (residual[k] - level) > 0) values.push(residual[k]);
-  return quantileOfSorted(Float64Array.from(values).sort(), 0.5);
+  let count = 0;
+  for (let k = 0; k < residual.length; k++) if (sign * (residual[k] - level) > 0) count++;
+  const values = new Float64Array(count);
+  for (let k = 0, i = 0; k < residual.length; k++) if (sign * (residual[k] - level) > 0) values[i++] = residual[k];
+  return quantileInPlace(values, 0.5);
 }
 
 /**
@@ -228,7 +243,7 @@ function targetSideMedian(residual: Float32Array, level: number, sign: number): 
  */
 function splitByOtsu(
   residual: Float32Array,
-  sortedSample: Float64Array,
+  sample: Float64Array,
   givenPolarity: TargetPolarity | undefined,
   maxTargetFraction: number,
   minContrast: number,
@@ -242,10 +257,11 @@ function splitByOtsu(
   const targetFraction = polarity === 'dark-on-light' ? darkFraction : 1 - darkFraction;
   if (targetFraction === 0 || targetFraction > maxTargetFraction) return null;
   const sign = polarity === 'light-on-dark' ? 1 : -1;
-  const background: number[] = [];
-  for (const value of sortedSample) if (sign * (value - otsuLevel) <= 0) background.push(value);
-  if (background.length === 0) return null;
-  const backgroundLevel = quantileOfSorted(background, 0.5);
+  const background = scratch.background.take(sample.length);
+  let backgroundCount = 0;
+  for (let k = 0; k < sample.length; k++) if (sign * (sample[k] - otsuLevel) <= 0) background[backgroundCount++] = sample[k];
+  if (backgroundCount === 0) return null;
+  const backgroundLevel = quantileInPlace(background, 0.5, backgroundCount);
   const targetLevel = targetSideMedian(residual, otsuLevel, sign);
   if (!(sign * (targetLevel - backgroundLevel) >= minContrast)) return null;
   return { polarity, backgroundLevel, targetLevel };
@@ -258,11 +274,11 @@ function splitByOtsu(
  */
 function splitByOutliers(
   residual: Float32Array,
-  sortedSample: Float64Array,
+  sample: Float64Array,
   givenPolarity: TargetPolarity | undefined,
   minContrast: number,
 ): ClassSplit | null {
-  const backgroundLevel = quantileOfSorted(sortedSample, 0.5);
+  const backgroundLevel = quantileInPlace(Float64Array.from(sample), 0.5);
   let brighter = 0;
   let darker = 0;
   for (let k = 0; k < residual.length; k++) {

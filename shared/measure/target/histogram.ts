@@ -42,10 +42,12 @@ export function histogram(values: ArrayLike<number>, options: HistogramOptions):
     return { counts, lowerValue: Number.isFinite(lowerValue) ? lowerValue : 0, binWidth: 0 };
   }
   const binWidth = (upperValue - lowerValue) / options.binCount;
+  // Built before the loop: code after a long loop that has never run deoptimises the loop's compiled form.
+  const result: Histogram = { counts, lowerValue, binWidth };
   const last = options.binCount - 1;
   for (let k = 0; k < values.length; k++) {
     const bin = Math.floor((values[k] - lowerValue) / binWidth);
     counts[bin < 0 ? 0 : bin > last ? last : bin]++;
   }
-  return { counts, lowerValue, binWidth };
+  return result;
 }

@@ -1,7 +1,8 @@
 import type { GreyImage, TargetPolarity } from '../types';
 import { invariant } from '../image/invariant';
 import { fitPlane, type Plane } from './fit-plane';
-import { robustStdDev } from './robust-statistics';
+import { robustStdDevInPlace } from './robust-statistics';
+import { boxAround, discWindowMoments, dotSignalCovers, dotSignalOver, planeLevelAt, ringSignalSums, type DotSignal } from './dot-signal';
 
 type PointPx = { x: number; y: number };
 
@@ -64,121 +65,182 @@ export function checkMeasureDotPairOptions(image: GreyImage, options: MeasureDot
   return filled;
 }
 
+/** Grid samples of a background ring. */
+interface RingSamples {
+  xs: Float64Array;
+  ys: Float64Array;
+  values: Float64Array;
+  residuals: Float64Array;
+  scratch: Float64Array;
+}
+
+/**
+ * Reused from one ring to the next, and from one measurement to the next, so
+ * each frame does not hand the garbage collector another megabyte (JavaScript
+ * runs one call at a time, so no two rings share them at once).
+ */
+let ringSamples: RingSamples | null = null;
+
+function ringSamplesWithCapacity(capacity: number): RingSamples {
+  if (ringSamples && ringSamples.xs.length >= capacity) return ringSamples;
+  ringSamples = {
+    xs: new Float64Array(capacity),
+    ys: new Float64Array(capacity),
+    values: new Float64Array(capacity),
+    residuals: new Float64Array(capacity),
+    scratch: new Float64Array(capacity),
+  };
+  return ringSamples;
+}
+
+interface Ring {
+  cx: number;
+  cy: number;
+  inner: number;
+  outer: number;
+  /** Centre and squared radius of the other dot's window, left out. */
+  otherX: number;
+  otherY: number;
+  otherExclusionSq: number;
+  x0: number;
+  x1: number;
+  y0: number;
+  y1: number;
+  step: number;
+}
+
+/**
+ * Takes the ring's pixels on the grid x0 + i·step, y0 + j·step into `samples`
+ * (row by row) and returns how many. Each row visits only the grid points of
+ * the ring's two chords; 1 px margins keep every point the exact test takes.
+ */
+function sampleRing(image: GreyImage, ring: Ring, samples: RingSamples): number {
+  const { cx, cy, inner, outer, otherX, otherY, otherExclusionSq } = ring;
+  // Whole numbers as 32-bit integers (see accumulateFocusSums in focus-measure.ts).
+  const x0 = ring.x0 | 0;
+  const x1 = ring.x1 | 0;
+  const y0 = ring.y0 | 0;
+  const y1 = ring.y1 | 0;
+  const step = ring.step | 0;
+  const { xs, ys, values } = samples;
+  const { data } = image;
+  const width = image.width | 0;
+  let count = 0;
+  for (let y = y0; y <= y1; y += step) {
+    const dySq = (y - cy) ** 2;
+    const outerHalf = Math.sqrt(Math.max(0, outer * outer - dySq)) + 1;
+    const innerHalf = dySq < inner * inner ? Math.sqrt(inner * inner - dySq) - 1 : 0;
+    const last = Math.min(x1, cx + outerHalf);
+    let x = (x0 + Math.max(0, Math.ceil((cx - outerHalf - x0) / step)) * step) | 0;
+    while (x <= last) {
+      if (innerHalf > 0 && x > cx - innerHalf && x < cx + innerHalf) {
+        x = (x0 + Math.ceil((cx + innerHalf - x0) / step) * step) | 0;
+        continue;
+      }
+      const r = Math.sqrt((x - cx) ** 2 + dySq);
+      if (r >= inner && r <= outer && (x - otherX) ** 2 + (y - otherY) ** 2 >= otherExclusionSq) {
+        xs[count] = x;
+        ys[count] = y;
+        values[count] = data[y * width + x];
+        count++;
+      }
+      x += step;
+    }
+  }
+  return count;
+}
+
 /**
  * Background plane of one dot, from a ring just outside its window (pixels
  * inside the other dot's window left out), refitted once without 3-σ outliers.
  * Each dot gets its own plane: one plane through both would miss the curvature
  * of vignetting between them and tilt both centroids.
  */
-function fitLocalBackground(image: GreyImage, centres: PointPx[], windowRadiiPx: number[], k: 0 | 1): { plane: Plane; noiseStdDev: number } {
-  const xs: number[] = [];
-  const ys: number[] = [];
-  const values: number[] = [];
+function fitLocalBackground(
+  image: GreyImage,
+  centres: PointPx[],
+  windowRadiiPx: number[],
+  k: 0 | 1,
+): { plane: Plane; noiseStdDev: number } {
   const centre = centres[k];
+  const other = centres[1 - k];
   const inner = windowRadiiPx[k] + 1;
   const outer = inner + Math.max(4, 0.5 * windowRadiiPx[k]);
-  const x0 = Math.max(0, Math.floor(centre.x - outer));
-  const x1 = Math.min(image.width - 1, Math.ceil(centre.x + outer));
-  const y0 = Math.max(0, Math.floor(centre.y - outer));
-  const y1 = Math.min(image.height - 1, Math.ceil(centre.y + outer));
-  const other = centres[1 - k];
-  const otherExclusionSq = (windowRadiiPx[1 - k] + 1) ** 2;
-  // A ring of a few thousand pixels fixes a plane well; sample big rings on a sparser grid.
-  const ringArea = Math.PI * (outer * outer - inner * inner);
-  const step = Math.max(1, Math.floor(Math.sqrt(ringArea / 20_000)));
-  for (let y = y0; y <= y1; y += step) {
-    for (let x = x0; x <= x1; x += step) {
-      const r = Math.sqrt((x - centre.x) ** 2 + (y - centre.y) ** 2);
-      if (r < inner || r > outer) continue;
-      if ((x - other.x) ** 2 + (y - other.y) ** 2 < otherExclusionSq) continue;
-      xs.push(x);
-      ys.push(y);
-      values.push(image.data[y * image.width + x]);
-    }
-  }
-  if (values.length < 20) {
+  const box = boxAround(image, centre.x, centre.y, outer);
+  // A ring of a few thousand pixels fixes a plane well. The grid is sized from the ring's
+  // bounding square, so it holds at most ~20 000 points however big the ring (about half
+  // of them fall in the ring).
+  const squareArea = (box.x1 - box.x0 + 1) * (box.y1 - box.y0 + 1);
+  const ring: Ring = {
+    cx: centre.x,
+    cy: centre.y,
+    inner,
+    outer,
+    otherX: other.x,
+    otherY: other.y,
+    otherExclusionSq: (windowRadiiPx[1 - k] + 1) ** 2,
+    ...box,
+    step: Math.max(1, Math.floor(Math.sqrt(squareArea / 20_000))),
+  };
+  const samples = ringSamplesWithCapacity(
+    (Math.floor((ring.x1 - ring.x0) / ring.step) + 1) * (Math.floor((ring.y1 - ring.y0) / ring.step) + 1),
+  );
+  const count = sampleRing(image, ring, samples);
+  if (count < 20) {
     throw new RangeError(
       `The ${image.width}×${image.height} region leaves too little background around the dots; widen the region.`,
     );
   }
-  let plane = fitPlane(xs, ys, values);
-  const residuals = values.map((v, i) => v - (plane.offset + plane.slopeX * xs[i] + plane.slopeY * ys[i]));
-  const noiseStdDev = robustStdDev(residuals);
-  const keep = residuals.map((r) => Math.abs(r) <= 3 * noiseStdDev || noiseStdDev === 0);
-  if (keep.filter(Boolean).length >= 20) {
-    plane = fitPlane(xs.filter((_, i) => keep[i]), ys.filter((_, i) => keep[i]), values.filter((_, i) => keep[i]));
+  const { xs, ys, values } = samples;
+  let plane = fitPlane(xs.subarray(0, count), ys.subarray(0, count), values.subarray(0, count));
+  planeResiduals(samples, count, plane);
+  const noiseStdDev = robustStdDevInPlace(samples.scratch, count);
+  const kept = keepSamplesWithin(samples, count, noiseStdDev === 0 ? Infinity : 3 * noiseStdDev);
+  if (kept >= 20 && kept < count) {
+    plane = fitPlane(xs.subarray(0, kept), ys.subarray(0, kept), values.subarray(0, kept));
   }
   return { plane, noiseStdDev };
 }
 
-interface WindowMoments {
-  mass: number;
-  x: number;
-  y: number;
-}
+// The loops below are functions of their own, ending in nothing that needs type
+// feedback: code after a long loop that has never run deoptimises the loop's
+// compiled (on-stack-replaced) form, and here that would happen on every frame.
 
-/** Background-subtracted signal of a dot. A dark dot is a shadow on the lit background and is vignetted
- * with it, so its signal is taken relative to the background (scaled back to intensity at `centre`);
- * that removes the background's weighting of the centroid. A light dot is simply background-subtracted. */
-function makeSignal(sign: number, plane: Plane, centre: PointPx) {
-  const levelAtCentre = plane.offset + plane.slopeX * centre.x + plane.slopeY * centre.y;
-  if (sign > 0) return (value: number, background: number) => value - background;
-  return (value: number, background: number) => ((background - value) / background) * levelAtCentre;
-}
-
-/**
- * Signal-weighted centroid in a disc window whose edge pixels are weighted by
- * how much of them the disc covers, so the window moves smoothly with its centre.
- */
-function centroidInWindow(image: GreyImage, centre: PointPx, radiusPx: number, sign: number, plane: Plane): WindowMoments {
-  const signalOf = makeSignal(sign, plane, centre);
-  const reach = radiusPx + 0.5;
-  const x0 = Math.max(0, Math.floor(centre.x - reach));
-  const x1 = Math.min(image.width - 1, Math.ceil(centre.x + reach));
-  const y0 = Math.max(0, Math.floor(centre.y - reach));
-  const y1 = Math.min(image.height - 1, Math.ceil(centre.y + reach));
-  let mass = 0;
-  let sx = 0;
-  let sy = 0;
-  for (let y = y0; y <= y1; y++) {
-    const dy = y - centre.y;
-    const rowOffset = y * image.width;
-    const rowBackground = plane.offset + plane.slopeY * y;
-    for (let x = x0; x <= x1; x++) {
-      const dx = x - centre.x;
-      const weight = reach - Math.sqrt(dx * dx + dy * dy);
-      if (weight <= 0) continue;
-      const signal = signalOf(image.data[rowOffset + x], rowBackground + plane.slopeX * x) * (weight < 1 ? weight : 1);
-      mass += signal;
-      sx += signal * dx;
-      sy += signal * dy;
-    }
+/** Residuals of the samples from the plane, into `residuals` and (as scratch for the MAD) `scratch`. */
+function planeResiduals(samples: RingSamples, count: number, plane: Plane): void {
+  const { xs, ys, values, residuals, scratch } = samples;
+  const { offset, slopeX, slopeY } = plane;
+  for (let i = 0; i < count; i++) {
+    const residual = values[i] - (offset + slopeX * xs[i] + slopeY * ys[i]);
+    residuals[i] = residual;
+    scratch[i] = residual;
   }
-  return { mass, x: centre.x + sx / mass, y: centre.y + sy / mass };
+}
+
+/** Moves the samples whose residual is within ±limit to the front, in order; returns how many. */
+function keepSamplesWithin(samples: RingSamples, count: number, limit: number): number {
+  const { xs, ys, values, residuals } = samples;
+  let kept = 0;
+  for (let i = 0; i < count; i++) {
+    if (!(Math.abs(residuals[i]) <= limit)) continue;
+    xs[kept] = xs[i];
+    ys[kept] = ys[i];
+    values[kept] = values[i];
+    kept++;
+  }
+  return kept;
 }
 
 /** Radius beyond which a dot's ring-averaged signal has fallen to the noise or 2 % of its peak. */
-function signalRadius(image: GreyImage, centre: PointPx, maxRadiusPx: number, sign: number, plane: Plane, noiseStdDev: number): number {
-  const signalOf = makeSignal(sign, plane, centre);
+function signalRadius(dot: DotSignal, image: GreyImage, centre: PointPx, maxRadiusPx: number, levelScale: number, noiseStdDev: number): number {
   const ringCount = Math.max(1, Math.floor(maxRadiusPx));
   const sums = new Float64Array(ringCount);
   const counts = new Float64Array(ringCount);
-  const x0 = Math.max(0, Math.floor(centre.x - maxRadiusPx));
-  const x1 = Math.min(image.width - 1, Math.ceil(centre.x + maxRadiusPx));
-  const y0 = Math.max(0, Math.floor(centre.y - maxRadiusPx));
-  const y1 = Math.min(image.height - 1, Math.ceil(centre.y + maxRadiusPx));
-  for (let y = y0; y <= y1; y++) {
-    for (let x = x0; x <= x1; x++) {
-      const ring = Math.floor(Math.sqrt((x - centre.x) ** 2 + (y - centre.y) ** 2));
-      if (ring >= ringCount) continue;
-      sums[ring] += signalOf(image.data[y * image.width + x], plane.offset + plane.slopeX * x + plane.slopeY * y);
-      counts[ring]++;
-    }
-  }
+  ringSignalSums(dot, image, centre.x, centre.y, sums, counts);
   let peak = 0;
   let peakRing = 0;
   for (let ring = 0; ring < ringCount; ring++) {
-    const mean = counts[ring] ? sums[ring] / counts[ring] : 0;
+    const mean = counts[ring] ? (levelScale * sums[ring]) / counts[ring] : 0;
     if (mean > peak) {
       peak = mean;
       peakRing = ring;
@@ -186,10 +248,15 @@ function signalRadius(image: GreyImage, centre: PointPx, maxRadiusPx: number, si
   }
   for (let ring = peakRing; ring < ringCount; ring++) {
     if (!counts[ring]) continue;
-    const mean = sums[ring] / counts[ring];
+    const mean = (levelScale * sums[ring]) / counts[ring];
     if (mean < Math.max(0.02 * peak, (3 * noiseStdDev) / Math.sqrt(counts[ring]))) return ring + 1;
   }
   return maxRadiusPx;
+}
+
+/** Beyond the window, room for the centre to move before a dot's signal disc must be rebuilt. */
+function signalDiscMarginPx(radiusPx: number): number {
+  return Math.max(4, 0.05 * radiusPx);
 }
 
 /**
@@ -202,47 +269,62 @@ function signalRadius(image: GreyImage, centre: PointPx, maxRadiusPx: number, si
 export function measureDotPair(image: GreyImage, options: MeasureDotPairOptions): DotPairMeasurement {
   const { polarity, approximateCentresPx, searchRadiusPx, tolerancePx, maxIterations } = checkMeasureDotPairOptions(image, options);
   const sign = polarity === 'light-on-dark' ? 1 : -1;
-  const centres: PointPx[] = approximateCentresPx.map((c) => ({ ...c }));
+  const centres: PointPx[] = approximateCentresPx.map((c) => ({ x: c.x, y: c.y }));
   const spacing = Math.hypot(centres[0].x - centres[1].x, centres[0].y - centres[1].y);
   const largestRadius = Math.min(searchRadiusPx, 0.5 * spacing);
   let radii = [largestRadius, largestRadius];
   let backgrounds = [fitLocalBackground(image, centres, radii, 0), fitLocalBackground(image, centres, radii, 1)];
+  const signals: (DotSignal | null)[] = [null, null];
+  /** The dot's signal disc for its current plane, rebuilt when the window has moved out of it. */
+  const signalFor = (k: number, reachPx: number): DotSignal => {
+    const { x, y } = centres[k];
+    const current = signals[k];
+    if (current && current.plane === backgrounds[k].plane && dotSignalCovers(current, x, y, reachPx)) return current;
+    signals[k] = dotSignalOver(image, backgrounds[k].plane, sign, x, y, reachPx + 2 + signalDiscMarginPx(reachPx), k === 0 ? 0 : 1);
+    return signals[k] as DotSignal;
+  };
+  // A dark dot's relative signal, scaled back to intensity at its centre.
+  const levelScale = (k: number) => (sign > 0 ? 1 : planeLevelAt(backgrounds[k].plane, centres[k].x, centres[k].y));
 
   const insideRadius = (c: PointPx, radius: number) =>
     Math.max(1, Math.min(radius, c.x - 0.5, c.y - 0.5, image.width - 1.5 - c.x, image.height - 1.5 - c.y));
 
+  const moments = new Float64Array(3);
   let iterations = 0;
   const iterate = (limit: number, stopShiftPx: number) => {
     for (let step = 0; step < limit; step++) {
       iterations++;
       let largestShift = 0;
       for (let k = 0; k < 2; k++) {
-        const moments = centroidInWindow(image, centres[k], insideRadius(centres[k], radii[k]), sign, backgrounds[k].plane);
-        if (!(moments.mass > 0) || !Number.isFinite(moments.x) || !Number.isFinite(moments.y)) {
+        const { x, y } = centres[k];
+        const reachPx = insideRadius(centres[k], radii[k]) + 0.5;
+        discWindowMoments(signalFor(k, reachPx), image, x, y, reachPx, moments);
+        const mass = levelScale(k) * moments[0];
+        const next = { x: x + moments[1] / moments[0], y: y + moments[2] / moments[0] };
+        if (!(mass > 0) || !Number.isFinite(next.x) || !Number.isFinite(next.y)) {
           throw new RangeError(
             `No ${polarity} dot found near (${approximateCentresPx[k].x.toFixed(1)}, ${approximateCentresPx[k].y.toFixed(1)}).`,
           );
         }
-        largestShift = Math.max(largestShift, Math.hypot(moments.x - centres[k].x, moments.y - centres[k].y));
-        centres[k] = { x: moments.x, y: moments.y };
+        largestShift = Math.max(largestShift, Math.hypot(next.x - x, next.y - y));
+        centres[k] = next;
       }
       if (largestShift < stopShiftPx) return;
     }
   };
 
   iterate(10, Math.max(tolerancePx, 0.01));
-  radii = centres.map((c, k) =>
-    Math.min(largestRadius, 1.25 * signalRadius(image, c, largestRadius, sign, backgrounds[k].plane, backgrounds[k].noiseStdDev) + 3),
-  );
+  radii = centres.map((c, k) => {
+    const rings = Math.max(1, Math.floor(largestRadius));
+    const radius = signalRadius(signalFor(k, rings), image, c, largestRadius, levelScale(k), backgrounds[k].noiseStdDev);
+    return Math.min(largestRadius, 1.25 * radius + 3);
+  });
   backgrounds = [fitLocalBackground(image, centres, radii, 0), fitLocalBackground(image, centres, radii, 1)];
   iterate(maxIterations, tolerancePx);
 
   const sizePx = Math.hypot(centres[0].x - centres[1].x, centres[0].y - centres[1].y);
   invariant(Number.isFinite(sizePx), 'dot-pair size is finite');
-  const levelAt = (k: number) => {
-    const { plane } = backgrounds[k];
-    return plane.offset + plane.slopeX * centres[k].x + plane.slopeY * centres[k].y;
-  };
+  const levelAt = (k: number) => planeLevelAt(backgrounds[k].plane, centres[k].x, centres[k].y);
   return {
     sizePx,
     centresPx: [centres[0], centres[1]],

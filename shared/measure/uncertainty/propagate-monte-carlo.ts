@@ -8,11 +8,13 @@ import { InvalidOptionError } from '../fit/invalid-option-error';
 import { choleskyDecompose, SingularMatrixError } from '../fit/dense-linear-algebra';
 import { checkCorrelation, checkGumInputs, type GumInput } from './gum-input';
 import { createSeededRandom } from './seeded-random';
+import { selectInPlace } from '../statistics/select-in-place';
 
 export { compareGumWithMonteCarlo } from './compare-gum-with-monte-carlo';
 
 export interface PropagateMonteCarloOptions {
   inputs: GumInput[];
+  /** The measurement model; it is handed one array, refilled for every trial, so it must not keep it. */
   model: (values: number[]) => number;
   /** Number of trials M (default 1e5). */
   draws?: number;
@@ -76,13 +78,17 @@ export function propagateMonteCarlo(options: PropagateMonteCarloOptions): Propag
     }
   }
   const outputs = new Float64Array(draws);
-  const standardDeviates = new Array<number>(n);
+  const means = Float64Array.from(inputs, (input) => input.value);
+  const standardUncertainties = Float64Array.from(inputs, (input) => input.standardUncertainty);
+  const degreesOfFreedom = Float64Array.from(inputs, (input) => input.degreesOfFreedom);
+  const standardDeviates = new Float64Array(n);
+  // One array handed to the model on every trial (the model reads it, never keeps it): a fresh one per trial was most of the loop's cost.
+  const values = inputs.map((input) => input.value);
   // Welford's running mean and variance (stable for large M).
   let mean = 0;
   let sumSquaredDeviations = 0;
   for (let trial = 0; trial < draws; trial++) {
-    for (let i = 0; i < n; i++) standardDeviates[i] = random.nextStudentT(inputs[i].degreesOfFreedom);
-    const values = new Array<number>(n);
+    for (let i = 0; i < n; i++) standardDeviates[i] = random.nextStudentT(degreesOfFreedom[i]);
     for (let i = 0; i < n; i++) {
       let deviate = standardDeviates[i];
       if (lower && scale) {
@@ -90,7 +96,7 @@ export function propagateMonteCarlo(options: PropagateMonteCarloOptions): Propag
         deviate = 0;
         for (let k = 0; k <= i; k++) deviate += lower[i][k] * standardDeviates[k];
       }
-      values[i] = inputs[i].value + inputs[i].standardUncertainty * deviate;
+      values[i] = means[i] + standardUncertainties[i] * deviate;
     }
     const y = model(values);
     if (!Number.isFinite(y)) {
@@ -101,16 +107,18 @@ export function propagateMonteCarlo(options: PropagateMonteCarloOptions): Propag
     mean += delta / (trial + 1);
     sumSquaredDeviations += delta * (y - mean);
   }
-  outputs.sort();
   const q = Number.isInteger(coverageProbability * draws) ? coverageProbability * draws : Math.floor(coverageProbability * draws + 0.5);
   const r = (draws - q) % 2 === 0 ? (draws - q) / 2 : (draws - q + 1) / 2;
   const lowIndex = Math.max(r, 1) - 1;
   const highIndex = Math.min(r + q, draws) - 1;
+  // Only two order statistics are needed, so they are selected rather than the whole sample sorted.
+  const intervalLow = selectInPlace(outputs, lowIndex);
+  const intervalHigh = selectInPlace(outputs, highIndex);
   return {
     value: mean,
     standardUncertainty: Math.sqrt(sumSquaredDeviations / (draws - 1)),
-    intervalLow: outputs[lowIndex],
-    intervalHigh: outputs[highIndex],
+    intervalLow,
+    intervalHigh,
     coverageProbability,
     draws,
   };

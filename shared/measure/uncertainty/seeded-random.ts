@@ -22,58 +22,95 @@ function rotateLeft(value: number, bits: number): number {
 }
 
 export function createSeededRandom(seed: number): SeededRandom {
-  let splitMixState = seed | 0;
-  const splitMix32 = () => {
-    splitMixState = (splitMixState + 0x9e3779b9) | 0;
-    let z = splitMixState;
-    z = Math.imul(z ^ (z >>> 16), 0x85ebca6b);
-    z = Math.imul(z ^ (z >>> 13), 0xc2b2ae35);
-    return (z ^ (z >>> 16)) >>> 0;
-  };
-  let s0 = splitMix32();
-  let s1 = splitMix32();
-  let s2 = splitMix32();
-  let s3 = splitMix32();
-  if ((s0 | s1 | s2 | s3) === 0) s0 = 1;
+  return new Xoshiro128StarStar(seed);
+}
 
-  const nextUint32 = () => {
-    const result = Math.imul(rotateLeft(Math.imul(s1, 5), 7), 9) >>> 0;
-    const t = s1 << 9;
-    s2 ^= s0;
-    s3 ^= s1;
-    s1 ^= s2;
-    s0 ^= s3;
-    s2 ^= t;
-    s3 = rotateLeft(s3, 11);
-    return result;
-  };
-  const nextUniform = () => ((nextUint32() >>> 5) * 67108864 + (nextUint32() >>> 6)) / 9007199254740992;
+// A class rather than closures over `let` variables: its fields are updated in
+// place, where a closure's captured double (the spare normal) is boxed anew on
+// every write, and a Monte Carlo run draws about a million deviates. The raw
+// 32-bit outputs are made in blocks, with the state in local variables, and
+// handed out in the same order.
+class Xoshiro128StarStar implements SeededRandom {
+  private s0: number;
+  private s1: number;
+  private s2: number;
+  private s3: number;
+  private readonly block = new Uint32Array(1024);
+  private blockIndex = 1024;
+  private spareNormal = 0;
+  private hasSpareNormal = false;
 
-  let spareNormal: number | null = null;
-  const nextNormal = () => {
-    if (spareNormal !== null) {
-      const value = spareNormal;
-      spareNormal = null;
-      return value;
+  constructor(seed: number) {
+    let splitMixState = seed | 0;
+    const splitMix32 = () => {
+      splitMixState = (splitMixState + 0x9e3779b9) | 0;
+      let z = splitMixState;
+      z = Math.imul(z ^ (z >>> 16), 0x85ebca6b);
+      z = Math.imul(z ^ (z >>> 13), 0xc2b2ae35);
+      return (z ^ (z >>> 16)) >>> 0;
+    };
+    // Kept as signed 32-bit integers (the same bits), which the engine stores without boxing.
+    this.s0 = splitMix32() | 0;
+    this.s1 = splitMix32() | 0;
+    this.s2 = splitMix32() | 0;
+    this.s3 = splitMix32() | 0;
+    if ((this.s0 | this.s1 | this.s2 | this.s3) === 0) this.s0 = 1;
+  }
+
+  private refillBlock(): void {
+    const block = this.block;
+    let { s0, s1, s2, s3 } = this;
+    for (let i = 0; i < block.length; i++) {
+      block[i] = Math.imul(rotateLeft(Math.imul(s1, 5), 7), 9);
+      const t = s1 << 9;
+      s2 ^= s0;
+      s3 ^= s1;
+      s1 ^= s2;
+      s0 ^= s3;
+      s2 ^= t;
+      s3 = rotateLeft(s3, 11);
+    }
+    this.s0 = s0;
+    this.s1 = s1;
+    this.s2 = s2;
+    this.s3 = s3;
+    this.blockIndex = 0;
+  }
+
+  private nextUint32(): number {
+    if (this.blockIndex === this.block.length) this.refillBlock();
+    return this.block[this.blockIndex++];
+  }
+
+  nextUniform(): number {
+    // × 2⁻⁵³ is exactly ÷ 2⁵³.
+    return ((this.nextUint32() >>> 5) * 67108864 + (this.nextUint32() >>> 6)) * 1.1102230246251565e-16;
+  }
+
+  nextNormal(): number {
+    if (this.hasSpareNormal) {
+      this.hasSpareNormal = false;
+      return this.spareNormal;
     }
     let u: number;
     let v: number;
     let s: number;
     do {
-      u = 2 * nextUniform() - 1;
-      v = 2 * nextUniform() - 1;
+      u = 2 * this.nextUniform() - 1;
+      v = 2 * this.nextUniform() - 1;
       s = u * u + v * v;
     } while (s >= 1 || s === 0);
     const factor = Math.sqrt((-2 * Math.log(s)) / s);
-    spareNormal = v * factor;
+    this.spareNormal = v * factor;
+    this.hasSpareNormal = true;
     return u * factor;
-  };
+  }
 
-  const nextGamma = (shape: number): number => {
+  nextGamma(shape: number): number {
     if (shape < 1) {
-      let u = nextUniform();
-      while (u === 0) u = nextUniform();
-      return nextGamma(shape + 1) * Math.pow(u, 1 / shape);
+      let u = this.nextUniform();
+      while (u === 0) u = this.nextUniform();
+      return this.nextGamma(shape + 1) * Math.pow(u, 1 / shape);
     }
     const d = shape - 1 / 3;
     const c = 1 / Math.sqrt(9 * d);
@@ -81,22 +118,20 @@ export function createSeededRandom(seed: number): SeededRandom {
       let x: number;
       let v: number;
       do {
-        x = nextNormal();
+        x = this.nextNormal();
         v = 1 + c * x;
       } while (v <= 0);
       v = v * v * v;
-      const u = nextUniform();
+      const u = this.nextUniform();
       if (u < 1 - 0.0331 * x * x * x * x) return d * v;
       if (Math.log(u) < 0.5 * x * x + d * (1 - v + Math.log(v))) return d * v;
     }
-  };
+  }
 
-  const nextStudentT = (degreesOfFreedom: number) => {
-    const z = nextNormal();
+  nextStudentT(degreesOfFreedom: number): number {
+    const z = this.nextNormal();
     if (degreesOfFreedom === Infinity) return z;
-    const chiSquare = 2 * nextGamma(degreesOfFreedom / 2);
+    const chiSquare = 2 * this.nextGamma(degreesOfFreedom / 2);
     return z / Math.sqrt(chiSquare / degreesOfFreedom);
-  };
-
-  return { nextUniform, nextNormal, nextGamma, nextStudentT };
+  }
 }
