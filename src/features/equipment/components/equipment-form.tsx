@@ -6,7 +6,7 @@ import { TextField } from '@/components/ui/text-field';
 import { useCreateEquipment } from '@/features/equipment/api/create-equipment';
 import { equipmentKinds, type EquipmentItem, type EquipmentKindName } from '@shared/schemas/equipment';
 import { useUpdateEquipment } from '@/features/equipment/api/update-equipment';
-import { splitServerProblems } from '@/features/equipment/lib/server-problems';
+import { splitServerProblems } from '@/lib/server-problems';
 import {
   createEquipmentRequest,
   emptyEquipmentDraft,

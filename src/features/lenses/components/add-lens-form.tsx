@@ -7,7 +7,7 @@ import { TextField } from '@/components/ui/text-field';
 import { useCreateLens } from '@/features/lenses/api/create-lens';
 import type { LensSummary } from '@shared/schemas/lenses';
 import { LensKindMark } from '@/features/lenses/components/lens-kind-mark';
-import { splitServerProblems } from '@/features/lenses/lib/server-problems';
+import { splitServerProblems } from '@/lib/server-problems';
 import {
   createLensRequest,
   EMPTY_LENS_DRAFT,

@@ -6,7 +6,7 @@ import { useUpdateWorkOrder } from '@/features/work-orders/api/update-work-order
 import { workOrderStatuses, type WorkOrderDetail, type WorkOrderStatus } from '@shared/schemas/work-orders';
 import { SelectField } from '@/features/work-orders/components/form-controls';
 import { WORK_ORDER_STATUS_WORDS } from '@/features/work-orders/components/work-order-status-mark';
-import { splitServerProblems } from '@/features/work-orders/lib/server-problems';
+import { splitServerProblems } from '@/lib/server-problems';
 import { updateWorkOrderProgressRequest, type FieldProblems } from '@/features/work-orders/lib/work-order-request';
 
 export interface WorkOrderProgressFormProps {

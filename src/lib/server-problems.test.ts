@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { ApiError } from '@/lib/api-client';
-import { splitServerProblems } from '@/features/work-orders/lib/server-problems';
+import { splitServerProblems } from '@/lib/server-problems';
 
 describe('splitServerProblems', () => {
   it('splitServerProblems puts each sentence beside its field and keeps what no field can show', () => {
