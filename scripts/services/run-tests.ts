@@ -97,19 +97,24 @@ async function main(): Promise<number> {
     };
 
     log.step(`Running vitest ${vitestArgs.join(' ')}`.trim());
-    const vitest = spawn(process.execPath, [path.join(projectRoot, 'node_modules', 'vitest', 'vitest.mjs'), 'run', ...vitestArgs], {
+    // A JSON report beside the usual output gives the plain "N passed, N failed" closing line.
+    const summaryFile = path.join(scratchDir, 'vitest-summary.json');
+    const reporters = ['--reporter=default', '--reporter=json', `--outputFile.json=${summaryFile}`];
+    const vitest = spawn(process.execPath, [path.join(projectRoot, 'node_modules', 'vitest', 'vitest.mjs'), 'run', ...reporters, ...vitestArgs], {
       cwd: projectRoot,
       env,
       stdio: ['ignore', 'inherit', 'inherit'],
     });
     vitestPid = vitest.pid;
-    return await new Promise<number>((resolve) => {
+    const exitCode = await new Promise<number>((resolve) => {
       vitest.on('exit', (code, signal) => resolve(code ?? (signal ? 130 : 1)));
       vitest.on('error', (error) => {
         log.error(`vitest could not start: ${error.message}`);
         resolve(1);
       });
     });
+    await printSummaryLine(summaryFile);
+    return exitCode;
   } catch (error) {
     log.error((error as Error).message);
     return 1;
@@ -123,6 +128,17 @@ async function main(): Promise<number> {
     }
     await rm(folders.root, { recursive: true, force: true });
     log.step('Services stopped and the throw-away data folder removed');
+  }
+}
+
+/** The plain closing line: "N passed, N failed, N skipped", from vitest's JSON report. */
+async function printSummaryLine(file: string): Promise<void> {
+  try {
+    const report = JSON.parse(await readFile(file, 'utf8')) as Record<string, number>;
+    const skipped = (report.numPendingTests ?? 0) + (report.numTodoTests ?? 0);
+    process.stdout.write(`\n${report.numPassedTests} passed, ${report.numFailedTests} failed, ${skipped} skipped\n`);
+  } catch {
+    // No report (vitest did not start or was stopped): its exit code already says so.
   }
 }
 
