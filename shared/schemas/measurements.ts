@@ -11,7 +11,7 @@ import type { EquipmentItem, EquipmentKindName } from './equipment';
 import type { Frame } from './frames';
 import { lensMeasurementStatuses, type LensKind } from './lenses';
 import { checkMeasurementManifest, focusOperators, measurementMethods, type MeasurementManifestInput } from './measurement-manifest';
-import { isoDateField, optionalText, sortOrders, uuidField, type DecisionRule, type SortOrder } from './work-orders';
+import { isoDateField, optionalText, pageField, pageSizeField, sortOrders, uuidField, type DecisionRule, type SortOrder } from './work-orders';
 
 export type MeasurementMethodName = (typeof measurementMethods)[number];
 export type FocusOperatorName = (typeof focusOperators)[number];
@@ -326,18 +326,8 @@ export const listMeasurementsQuery = z.strictObject({
   lensId: uuidField('lensId').optional(),
   sort: z.enum(measurementSortFields, { error: `Field "sort" must be one of: ${measurementSortFields.join(', ')}.` }).optional(),
   order: z.enum(sortOrders, { error: 'Field "order" must be "asc" or "desc".' }).optional(),
-  page: z.coerce
-    .number({ error: 'Field "page" must be a whole number, 1 or more.' })
-    .int({ error: 'Field "page" must be a whole number, 1 or more.' })
-    .min(1, { error: 'Field "page" must be a whole number, 1 or more.' })
-    .max(1_000_000, { error: 'Field "page" must be at most 1000000.' })
-    .default(1),
-  pageSize: z.coerce
-    .number({ error: `Field "pageSize" must be a whole number from 1 to ${MEASUREMENT_PAGE_SIZE_MAX}.` })
-    .int({ error: `Field "pageSize" must be a whole number from 1 to ${MEASUREMENT_PAGE_SIZE_MAX}.` })
-    .min(1, { error: `Field "pageSize" must be a whole number from 1 to ${MEASUREMENT_PAGE_SIZE_MAX}.` })
-    .max(MEASUREMENT_PAGE_SIZE_MAX, { error: `Field "pageSize" must be a whole number from 1 to ${MEASUREMENT_PAGE_SIZE_MAX}.` })
-    .default(MEASUREMENT_PAGE_SIZE_DEFAULT),
+  page: pageField(),
+  pageSize: pageSizeField(MEASUREMENT_PAGE_SIZE_MAX, MEASUREMENT_PAGE_SIZE_DEFAULT),
 });
 export type ListMeasurementsQuery = z.output<typeof listMeasurementsQuery>;
 /** What the client puts in the query string. */

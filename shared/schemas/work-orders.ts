@@ -20,6 +20,23 @@ export const workOrderSortFields = ['number', 'dueDate', 'createdAt', 'status', 
 export type WorkOrderSortField = (typeof workOrderSortFields)[number];
 
 export const sortOrders = ['asc', 'desc'] as const;
+
+/** `page` of a paginated list: a whole number, 1 or more. */
+export function pageField() {
+  const message = 'Field "page" must be a whole number, 1 or more.';
+  return z.coerce
+    .number({ error: message })
+    .int({ error: message })
+    .min(1, { error: message })
+    .max(1_000_000, { error: 'Field "page" must be at most 1000000.' })
+    .default(1);
+}
+
+/** `pageSize` of a paginated list: a whole number from 1 to `max`. */
+export function pageSizeField(max: number, defaultSize: number) {
+  const message = `Field "pageSize" must be a whole number from 1 to ${max}.`;
+  return z.coerce.number({ error: message }).int({ error: message }).min(1, { error: message }).max(max, { error: message }).default(defaultSize);
+}
 export type SortOrder = (typeof sortOrders)[number];
 
 export const WORK_ORDER_PAGE_SIZE_DEFAULT = 25;
@@ -116,18 +133,8 @@ export const listWorkOrdersQuery = z
     dueAfter: isoDateField('dueAfter').optional(),
     sort: z.enum(workOrderSortFields, { error: `Field "sort" must be one of: ${workOrderSortFields.join(', ')}.` }).optional(),
     order: z.enum(sortOrders, { error: 'Field "order" must be "asc" or "desc".' }).optional(),
-    page: z.coerce
-      .number({ error: 'Field "page" must be a whole number, 1 or more.' })
-      .int({ error: 'Field "page" must be a whole number, 1 or more.' })
-      .min(1, { error: 'Field "page" must be a whole number, 1 or more.' })
-      .max(1_000_000, { error: 'Field "page" must be at most 1000000.' })
-      .default(1),
-    pageSize: z.coerce
-      .number({ error: `Field "pageSize" must be a whole number from 1 to ${WORK_ORDER_PAGE_SIZE_MAX}.` })
-      .int({ error: `Field "pageSize" must be a whole number from 1 to ${WORK_ORDER_PAGE_SIZE_MAX}.` })
-      .min(1, { error: `Field "pageSize" must be a whole number from 1 to ${WORK_ORDER_PAGE_SIZE_MAX}.` })
-      .max(WORK_ORDER_PAGE_SIZE_MAX, { error: `Field "pageSize" must be a whole number from 1 to ${WORK_ORDER_PAGE_SIZE_MAX}.` })
-      .default(WORK_ORDER_PAGE_SIZE_DEFAULT),
+    page: pageField(),
+    pageSize: pageSizeField(WORK_ORDER_PAGE_SIZE_MAX, WORK_ORDER_PAGE_SIZE_DEFAULT),
   })
   .refine((query) => !query.dueBefore || !query.dueAfter || query.dueAfter <= query.dueBefore, {
     error: 'Field "dueAfter" must not be later than "dueBefore".',
