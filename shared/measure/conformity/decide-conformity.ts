@@ -49,6 +49,13 @@ export function checkDecideConformityOptions(options: DecideConformityOptions): 
   return { measuredValue, expandedUncertainty, lowerLimit, upperLimit, rule, unit };
 }
 
+/** U to two significant digits and the value to the same decimal place (GUM 7.2.6). */
+function roundedToUncertainty(value: number, expandedUncertainty: number): [string, string] {
+  if (!(expandedUncertainty > 0) || !Number.isFinite(expandedUncertainty)) return [format(value), format(expandedUncertainty)];
+  const decimals = Math.min(12, Math.max(0, 1 - Math.floor(Math.log10(expandedUncertainty))));
+  return [value.toFixed(decimals), expandedUncertainty.toFixed(decimals)];
+}
+
 function format(value: number): string {
   return Number(value.toPrecision(6)).toString();
 }
@@ -68,7 +75,8 @@ export function decideConformity(options: DecideConformityOptions): ConformityRe
   if (rule === 'simple' && decision === 'undecided') decision = 'does-not-conform';
 
   const tolerance = `${format(lowerLimit)} to ${format(upperLimit)} ${unit}`;
-  const measured = `${format(measuredValue)} ${unit} (U = ${format(expandedUncertainty)} ${unit})`;
+  const [valueText, uncertaintyText] = roundedToUncertainty(measuredValue, expandedUncertainty);
+  const measured = `${valueText} ${unit} (U = ${uncertaintyText} ${unit})`;
   let statement: string;
   if (rule === 'simple') {
     statement =

@@ -43,12 +43,12 @@ export function ConformityMark({ decision, size = 'md', detail }: ConformityMark
   const sizing = SIZES[size];
   return (
     <span
-      className={`inline-flex items-center whitespace-nowrap rounded-hair border font-medium ${look.classes} ${sizing.box}`}
+      className={`inline-flex max-w-full flex-wrap items-center rounded-hair border font-medium ${look.classes} ${sizing.box}`}
       data-decision={decision}
     >
       {look.glyph(sizing.glyph)}
-      <span>{CONFORMITY_WORDS[decision]}</span>
-      {detail ? <span className="font-normal opacity-85">· {detail}</span> : null}
+      <span className="whitespace-nowrap">{CONFORMITY_WORDS[decision]}</span>
+      {detail ? <span className="whitespace-nowrap font-normal opacity-85">· {detail}</span> : null}
     </span>
   );
 }
