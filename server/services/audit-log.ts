@@ -1,5 +1,5 @@
-import type { Database } from '../db/client';
 import { auditEvents } from '../db/schema';
+import type { Queryable } from './numbering';
 
 export interface AuditEventInput {
   actorId: string | null;
@@ -11,7 +11,8 @@ export interface AuditEventInput {
   ip?: string | null;
 }
 
-export async function recordAuditEvent(db: Database, event: AuditEventInput): Promise<void> {
+/** Records one audit event, on the pool or inside a caller's transaction. */
+export async function recordAuditEvent(db: Queryable, event: AuditEventInput): Promise<void> {
   await db.insert(auditEvents).values({
     actorId: event.actorId,
     action: event.action,

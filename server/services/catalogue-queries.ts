@@ -1,6 +1,5 @@
 /** Pieces the catalogue services (work orders, lenses, equipment, spread) share. */
 import type { Request } from 'express';
-import type { Database } from '../db/client';
 import type { Role } from '../db/schema';
 import { HttpError } from '../http-error';
 import { HttpStatus } from '../http-status';
@@ -17,8 +16,7 @@ export interface Actor {
 
 /** recordAuditEvent within a transaction, so the event commits or rolls back with the change it describes. */
 export function recordAuditEventWithin(tx: Queryable, event: AuditEventInput): Promise<void> {
-  // audit-log.ts is typed for the pool-bound Database; a transaction runs the same insert.
-  return recordAuditEvent(tx as unknown as Database, event);
+  return recordAuditEvent(tx, event);
 }
 
 /** An ILIKE pattern matching `text` anywhere, its own %, _ and \ taken literally. */

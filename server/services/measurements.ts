@@ -32,6 +32,7 @@ import { HttpStatus } from '../http-status';
 import { invariant } from '../invariant';
 import { findAnalysisRunById, listAnalysisRunSummaries } from './analysis-runs';
 import { containsPattern, type Actor } from './catalogue-queries';
+import { recordMeasurementChange } from './measurement-change';
 import { calibrationStateOf, toEquipmentItem } from './equipment';
 import { deleteFrameObjects, frameChangeRefusal, sweepObjectPrefix, toFrame, type StoreFrameDeps } from './frame-storage';
 import { allocateNumber, type Queryable } from './numbering';
@@ -472,15 +473,7 @@ export async function createSweep(db: Database, measurementId: string, input: Sw
         sensorPositionMm: input.sensorPositionMm ?? null,
       })
       .returning();
-    await tx.update(measurements).set({ updatedAt: new Date() }).where(eq(measurements.id, measurementId));
-    await tx.insert(auditEvents).values({
-      actorId: actor.actorId,
-      action: 'sweep.created',
-      subjectType: 'measurement',
-      subjectId: measurementId,
-      details: { number: measurement.number, sweepId: created.id, position },
-      ip: actor.ip ?? null,
-    });
+    await recordMeasurementChange(tx, { measurementId: measurementId, actor, action: 'sweep.created', details: { number: measurement.number, sweepId: created.id, position } });
     return toSweepDetail(created, []);
   });
 }
@@ -512,15 +505,7 @@ export async function updateSweep(
       all.map((s) => (s.id === sweepId ? next : sweepSetupOf(s))),
     );
     const [updated] = await tx.update(sweeps).set(changes).where(eq(sweeps.id, sweepId)).returning();
-    await tx.update(measurements).set({ updatedAt: new Date() }).where(eq(measurements.id, measurement.id));
-    await tx.insert(auditEvents).values({
-      actorId: actor.actorId,
-      action: 'sweep.updated',
-      subjectType: 'measurement',
-      subjectId: measurement.id,
-      details: { number: measurement.number, sweepId, changes },
-      ip: actor.ip ?? null,
-    });
+    await recordMeasurementChange(tx, { measurementId: measurement.id, actor, action: 'sweep.updated', details: { number: measurement.number, sweepId, changes } });
     const frameRows = await framesBySweep(tx, [sweepId]);
     return toSweepDetail(updated, frameRows.get(sweepId) ?? []);
   });
@@ -549,15 +534,7 @@ export async function deleteSweep(deps: StoreFrameDeps, sweepId: string, actor: 
       .innerJoin(workOrders, eq(workOrders.id, lenses.workOrderId))
       .where(eq(lenses.id, measurement.lensId));
     await tx.delete(sweeps).where(eq(sweeps.id, sweepId));
-    await tx.update(measurements).set({ updatedAt: new Date() }).where(eq(measurements.id, measurement.id));
-    await tx.insert(auditEvents).values({
-      actorId: actor.actorId,
-      action: 'sweep.deleted',
-      subjectType: 'measurement',
-      subjectId: measurement.id,
-      details: { number: measurement.number, sweepId, position: sweep.position, frames: frameRows.length },
-      ip: actor.ip ?? null,
-    });
+    await recordMeasurementChange(tx, { measurementId: measurement.id, actor, action: 'sweep.deleted', details: { number: measurement.number, sweepId, position: sweep.position, frames: frameRows.length } });
     return { frameRows, prefix: sweepObjectPrefix({ ...location, measurementId: measurement.id, sweepId }) };
   });
   // Objects go after the rows are gone: a failure then leaves an orphan object, never a frame without its image.
@@ -619,15 +596,7 @@ export async function deleteFrame(deps: StoreFrameDeps, frameId: string, actor: 
       );
     }
     await tx.delete(frames).where(eq(frames.id, frameId));
-    await tx.update(measurements).set({ updatedAt: new Date() }).where(eq(measurements.id, measurement.id));
-    await tx.insert(auditEvents).values({
-      actorId: actor.actorId,
-      action: 'frame.deleted',
-      subjectType: 'measurement',
-      subjectId: measurement.id,
-      details: { number: measurement.number, frameId, fileName: frame.fileName, sha256: frame.sha256 },
-      ip: actor.ip ?? null,
-    });
+    await recordMeasurementChange(tx, { measurementId: measurement.id, actor, action: 'frame.deleted', details: { number: measurement.number, frameId, fileName: frame.fileName, sha256: frame.sha256 } });
     return frame;
   });
   await deleteFrameObjects(deps, frame);

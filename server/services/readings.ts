@@ -13,10 +13,11 @@ import {
   type ReadingsSourceRow,
 } from '../../shared/schemas/readings';
 import type { Database } from '../db/client';
-import { auditEvents, frames, measurements, sweeps } from '../db/schema';
+import { frames, measurements, sweeps } from '../db/schema';
 import { HttpError } from '../http-error';
 import { HttpStatus } from '../http-status';
 import type { Actor } from './catalogue-queries';
+import { recordMeasurementChange } from './measurement-change';
 import { frameChangeRefusal, sweepNotFound, toFrame } from './frame-storage';
 
 function readingsRefused(fields: Record<string, string>): HttpError {
@@ -71,15 +72,7 @@ export async function setSweepReadings(db: Database, sweepId: string, input: Rea
       update frames set position_mm = readings.position_mm
       from (values ${sql.join(values, sql`, `)}) as readings(id, position_mm)
       where frames.id = readings.id`);
-    await tx.update(measurements).set({ updatedAt: new Date() }).where(eq(measurements.id, sweep.measurementId));
-    await tx.insert(auditEvents).values({
-      actorId: actor.actorId,
-      action: 'sweep.readings-set',
-      subjectType: 'measurement',
-      subjectId: sweep.measurementId,
-      details: { number: measurement.number, sweepId, mode: input.mode, frames: frameRows.length },
-      ip: actor.ip ?? null,
-    });
+    await recordMeasurementChange(tx, { measurementId: sweep.measurementId, actor, action: 'sweep.readings-set', details: { number: measurement.number, sweepId, mode: input.mode, frames: frameRows.length } });
 
     const updated = await tx.select().from(frames).where(eq(frames.sweepId, sweepId));
     return updated.sort((a, b) => compareFrameFileNames(a.fileName, b.fileName)).map(toFrame);
