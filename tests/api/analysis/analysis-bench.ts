@@ -12,7 +12,8 @@ import type { AnalysisRun, AnalysisRunSummary } from '../../../shared/schemas/an
 import { analysisRuns } from '../../../server/db/schema';
 import { CSRF_HEADER_NAME } from '../../../server/middleware/csrf';
 import { signedInWithRoles, type SignedInSession } from '../../helpers/browser-session';
-import type { CachedBenchMeasurement as BenchFixture } from '../../../scripts/synth/cached-bench-measurement';
+import { cachedBenchMeasurement, type CachedBenchMeasurement as BenchFixture } from '../../../scripts/synth/cached-bench-measurement';
+import { smallFiniteConjugate } from './small-bench';
 import { createTestOrganisation, uniqueSuffix } from '../../helpers/people';
 import type { TestApp } from '../../helpers/test-app';
 
@@ -216,4 +217,17 @@ export async function killWorkerMidRun(testApp: TestApp, options: { analysisRunI
     child.kill('SIGKILL');
   }
   expect(await exited).toBe('SIGKILL');
+}
+
+/**
+ * A new measurement of a small generated sweep, its analysis requested, and
+ * the worker that took it killed in the middle of measuring: the starting
+ * point of every dead-worker test.
+ */
+export async function analysisWithKilledWorker(testApp: TestApp, bench: AnalysisBench, env: Record<string, string>) {
+  const fixture = await cachedBenchMeasurement('finite-conjugate', (s) => smallFiniteConjugate(s, { framesPerFocus: 11 }));
+  const { measurementId } = await createMeasurementFromFixture(testApp, bench, fixture);
+  const queued = await requestAnalysis(bench, measurementId);
+  await killWorkerMidRun(testApp, { analysisRunId: queued.id, env, timeoutMs: 90_000 });
+  return { fixture, measurementId, queued };
 }

@@ -1,18 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startAnalysisWorker, type RunningAnalysisWorker } from '../../../server/workers/analysis-worker';
-import { cachedBenchMeasurement as benchFixture } from '../../../scripts/synth/cached-bench-measurement';
 import { uniqueSuffix } from '../../helpers/people';
 import { createTestApp, type TestApp } from '../../helpers/test-app';
 import {
   analysisRunRow,
   createAnalysisBench,
-  createMeasurementFromFixture,
-  killWorkerMidRun,
-  requestAnalysis,
+  analysisWithKilledWorker,
   waitForAnalysisToFinish,
   type AnalysisBench,
 } from './analysis-bench';
-import { smallFiniteConjugate } from './small-bench';
 
 /*
  * The job would expire only after 15 minutes (the default), far beyond this
@@ -44,11 +40,7 @@ afterAll(async () => {
 
 describe('a killed analysis worker’s lease', () => {
   it('is gone with its connection, so another worker requeues and finishes the run long before the job would expire', async () => {
-    const fixture = await benchFixture('finite-conjugate', (s) => smallFiniteConjugate(s, { framesPerFocus: 11 }));
-    const { measurementId } = await createMeasurementFromFixture(testApp, bench, fixture);
-    const queued = await requestAnalysis(bench, measurementId);
-
-    await killWorkerMidRun(testApp, { analysisRunId: queued.id, env: queueEnv, timeoutMs: 90_000 });
+    const { measurementId, queued } = await analysisWithKilledWorker(testApp, bench, queueEnv);
     expect(await analysisRunRow(testApp, queued.id)).toMatchObject({ status: 'running', result: null, attempts: 1 });
 
     rescuer = await startAnalysisWorker({ env: testApp.deps.env });

@@ -1,19 +1,15 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startAnalysisWorker, type RunningAnalysisWorker } from '../../../server/workers/analysis-worker';
-import { cachedBenchMeasurement as benchFixture } from '../../../scripts/synth/cached-bench-measurement';
 import { uniqueSuffix } from '../../helpers/people';
 import { createTestApp, type TestApp } from '../../helpers/test-app';
 import {
   analysisRunRow,
   createAnalysisBench,
-  createMeasurementFromFixture,
+  analysisWithKilledWorker,
   getAnalysis,
-  killWorkerMidRun,
-  requestAnalysis,
   waitForAnalysisToFinish,
   type AnalysisBench,
 } from './analysis-bench';
-import { smallFiniteConjugate } from './small-bench';
 
 /*
  * A short expiry makes a dead worker's job come back in seconds instead of
@@ -48,11 +44,7 @@ afterAll(async () => {
 
 describe('an analysis worker killed in the middle of a run', () => {
   it('leaves the run running with no result, and once the job expires another worker finishes it from the start', async () => {
-    const fixture = await benchFixture('finite-conjugate', (s) => smallFiniteConjugate(s, { framesPerFocus: 11 }));
-    const { measurementId } = await createMeasurementFromFixture(testApp, bench, fixture);
-    const queued = await requestAnalysis(bench, measurementId);
-
-    await killWorkerMidRun(testApp, { analysisRunId: queued.id, env: queueEnv, timeoutMs: 90_000 });
+    const { fixture, measurementId, queued } = await analysisWithKilledWorker(testApp, bench, queueEnv);
     const afterKill = await analysisRunRow(testApp, queued.id);
     expect(afterKill).toMatchObject({ status: 'running', result: null, attempts: 1, finishedAt: null });
     expect(afterKill.framesDone).toBeGreaterThan(0);
