@@ -44,6 +44,8 @@ export const people = pgTable(
     passwordHash: text('password_hash').notNull(),
     organisationId: uuid('organisation_id').references(() => organisations.id, { onDelete: 'restrict' }),
     active: boolean('active').notNull().default(true),
+    lastSignInAt: timestamp('last_sign_in_at', { withTimezone: true }),
+    deactivatedAt: timestamp('deactivated_at', { withTimezone: true }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (table) => [
@@ -239,6 +241,11 @@ export const measurements = pgTable(
     measuredOn: text('measured_on'), // ISO date
     /** The analysis run shown (and, once submitted, the one under review). */
     currentAnalysisId: uuid('current_analysis_id'),
+    submittedAt: timestamp('submitted_at', { withTimezone: true }),
+    submittedById: uuid('submitted_by_id').references(() => people.id, { onDelete: 'set null' }),
+    /** Who approved (authorised) the measurement; never the person who performed it. */
+    approvedById: uuid('approved_by_id').references(() => people.id, { onDelete: 'set null' }),
+    approvedAt: timestamp('approved_at', { withTimezone: true }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
   },
@@ -343,4 +350,181 @@ export const numberCounters = pgTable(
     lastValue: integer('last_value').notNull(),
   },
   (table) => [primaryKey({ columns: [table.kind, table.year] })],
+);
+
+/* ------------------------------------------------------------------ */
+/* Review, certificates, outbound mail.                               */
+/* ------------------------------------------------------------------ */
+
+export const reviewEntryKindValues = ['comment', 'submission', 'return', 'approval'] as const;
+export type ReviewEntryKind = (typeof reviewEntryKindValues)[number];
+export const reviewEntryKind = pgEnum('review_entry_kind', reviewEntryKindValues);
+
+/** One thread per measurement: comments and the transitions that carried a remark. */
+export const reviewEntries = pgTable(
+  'review_entries',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    measurementId: uuid('measurement_id')
+      .notNull()
+      .references(() => measurements.id, { onDelete: 'cascade' }),
+    authorId: uuid('author_id').references(() => people.id, { onDelete: 'set null' }),
+    kind: reviewEntryKind('kind').notNull().default('comment'),
+    body: text('body').notNull(),
+    /** The analysis run the remark was made about. */
+    analysisRunId: uuid('analysis_run_id').references(() => analysisRuns.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index('review_entries_measurement_idx').on(table.measurementId, table.createdAt)],
+);
+
+export const certificateStatusValues = ['current', 'superseded'] as const;
+export type CertificateStatus = (typeof certificateStatusValues)[number];
+export const certificateStatus = pgEnum('certificate_status', certificateStatusValues);
+
+/** Every revision of every certificate is kept; a reissue supersedes, nothing is deleted. */
+export const certificates = pgTable(
+  'certificates',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    /** Human-facing number shared by all revisions, e.g. C-2026-0007. */
+    number: text('number').notNull(),
+    /** 0 for the first issue, then 1, 2, … */
+    revision: integer('revision').notNull(),
+    measurementId: uuid('measurement_id')
+      .notNull()
+      .references(() => measurements.id, { onDelete: 'restrict' }),
+    organisationId: uuid('organisation_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'restrict' }),
+    status: certificateStatus('status').notNull().default('current'),
+    /** Printed on the PDF and in its QR code; unique across all revisions. */
+    verificationCode: text('verification_code').notNull().unique(),
+    objectKey: text('object_key').notNull(),
+    sha256: text('sha256').notNull(),
+    byteSize: integer('byte_size').notNull(),
+    pageCount: integer('page_count').notNull(),
+    /** The data the PDF was rendered from (CertificateData), kept for verification and reissue. */
+    data: jsonb('data').$type<Record<string, unknown>>().notNull(),
+    reissueReason: text('reissue_reason'),
+    issuedById: uuid('issued_by_id').references(() => people.id, { onDelete: 'set null' }),
+    issuedAt: timestamp('issued_at', { withTimezone: true }).notNull().defaultNow(),
+    supersededAt: timestamp('superseded_at', { withTimezone: true }),
+    supersededByCertificateId: uuid('superseded_by_certificate_id'),
+  },
+  (table) => [
+    uniqueIndex('certificates_number_revision_idx').on(table.number, table.revision),
+    index('certificates_measurement_idx').on(table.measurementId),
+    index('certificates_organisation_idx').on(table.organisationId),
+    index('certificates_sha256_idx').on(table.sha256),
+  ],
+);
+
+export const outboundMailKindValues = [
+  'certificate-issued',
+  'measurement-returned',
+  'work-requested',
+  'invitation',
+  'password-reset',
+] as const;
+export type OutboundMailKind = (typeof outboundMailKindValues)[number];
+export const outboundMailKind = pgEnum('outbound_mail_kind', outboundMailKindValues);
+
+export const outboundMailStatusValues = ['queued', 'sending', 'sent', 'retrying', 'failed'] as const;
+export type OutboundMailStatus = (typeof outboundMailStatusValues)[number];
+export const outboundMailStatus = pgEnum('outbound_mail_status', outboundMailStatusValues);
+
+/** Mail is written here inside the transaction of the action that caused it and sent
+ * afterwards by a dispatcher, so that sending never blocks or undoes the action. */
+export const outboundMail = pgTable(
+  'outbound_mail',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    kind: outboundMailKind('kind').notNull(),
+    toAddresses: text('to_addresses').array().notNull(),
+    subject: text('subject').notNull(),
+    textBody: text('text_body').notNull(),
+    htmlBody: text('html_body').notNull(),
+    status: outboundMailStatus('status').notNull().default('queued'),
+    attempts: integer('attempts').notNull().default(0),
+    lastError: text('last_error'),
+    nextAttemptAt: timestamp('next_attempt_at', { withTimezone: true }).notNull().defaultNow(),
+    sentAt: timestamp('sent_at', { withTimezone: true }),
+    messageId: text('message_id'),
+    /** What the mail is about, e.g. ('certificate', id). */
+    subjectType: text('subject_type'),
+    subjectId: text('subject_id'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [
+    index('outbound_mail_due_idx').on(table.status, table.nextAttemptAt),
+    index('outbound_mail_created_idx').on(table.createdAt),
+  ],
+);
+
+/* ------------------------------------------------------------------ */
+/* Administration: contacts, invitations, password resets.            */
+/* ------------------------------------------------------------------ */
+
+export const organisationContacts = pgTable(
+  'organisation_contacts',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    organisationId: uuid('organisation_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    email: text('email').notNull(),
+    /** Their job at the client, e.g. "Quality manager". */
+    position: text('position'),
+    phone: text('phone'),
+    /** Receives the "certificate issued" e-mail. */
+    receivesCertificates: boolean('receives_certificates').notNull().default(true),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [
+    index('organisation_contacts_organisation_idx').on(table.organisationId),
+    check('organisation_contacts_email_lower_case', sql`${table.email} = lower(${table.email})`),
+  ],
+);
+
+/** A one-time link to set a password: an invitation to a new person. Only the token's SHA-256 is stored. */
+export const invitations = pgTable(
+  'invitations',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    email: text('email').notNull(),
+    name: text('name').notNull(),
+    roles: text('roles').array().notNull(),
+    organisationId: uuid('organisation_id').references(() => organisations.id, { onDelete: 'cascade' }),
+    tokenHash: text('token_hash').notNull().unique(),
+    expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+    usedAt: timestamp('used_at', { withTimezone: true }),
+    revokedAt: timestamp('revoked_at', { withTimezone: true }),
+    invitedById: uuid('invited_by_id').references(() => people.id, { onDelete: 'set null' }),
+    /** The person created when the invitation was accepted. */
+    personId: uuid('person_id').references(() => people.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [
+    index('invitations_email_idx').on(table.email),
+    check('invitations_email_lower_case', sql`${table.email} = lower(${table.email})`),
+  ],
+);
+
+/** A one-time link to choose a new password. Only the token's SHA-256 is stored. */
+export const passwordResets = pgTable(
+  'password_resets',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    personId: uuid('person_id')
+      .notNull()
+      .references(() => people.id, { onDelete: 'cascade' }),
+    tokenHash: text('token_hash').notNull().unique(),
+    expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+    usedAt: timestamp('used_at', { withTimezone: true }),
+    requestedById: uuid('requested_by_id').references(() => people.id, { onDelete: 'set null' }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index('password_resets_person_idx').on(table.personId)],
 );

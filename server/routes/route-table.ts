@@ -14,6 +14,14 @@ import { measurementRoutes } from './measurements/measurements.routes';
 import { sweepRoutes } from './sweeps/sweeps.routes';
 import { frameRoutes } from './frames/frames.routes';
 import { analysesRoutes } from './analyses/analyses.routes';
+import { reviewRoutes } from './review/review.routes';
+import { certificateRoutes } from './certificates/certificates.routes';
+import { verificationRoutes } from './verification/verification.routes';
+import { portalRoutes } from './portal/portal.routes';
+import { invitationRoutes } from './invitations/invitations.routes';
+import { auditRoutes } from './audit/audit.routes';
+import { outboundMailRoutes } from './outbound-mail/outbound-mail.routes';
+import { storageRoutes } from './storage/storage.routes';
 import type { RouteAccess, RouteDefinition, RouteSpec } from './route-definition';
 
 /** Every API route, and nothing registers a route any other way. */
@@ -30,6 +38,14 @@ export const routeDefinitions: readonly RouteDefinition[] = [
   ...sweepRoutes,
   ...frameRoutes,
   ...analysesRoutes,
+  ...reviewRoutes,
+  ...certificateRoutes,
+  ...verificationRoutes,
+  ...portalRoutes,
+  ...invitationRoutes,
+  ...auditRoutes,
+  ...outboundMailRoutes,
+  ...storageRoutes,
 ];
 
 /** Who may call what: one row per route (method, path, roles). */

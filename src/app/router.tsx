@@ -15,9 +15,23 @@ import { NewMeasurementRoute } from '@/app/routes/app/measurement-new';
 import { NotFoundRoute } from '@/app/routes/not-found';
 import { RouteErrorPage } from '@/app/routes/route-error';
 import { SignInRoute } from '@/app/routes/sign-in';
+import { VerifyCertificateRoute } from '@/app/routes/verify-certificate';
+import { AcceptInvitationRoute } from '@/app/routes/accept-invitation';
+import { ChoosePasswordRoute } from '@/app/routes/choose-password';
+import { AdminPeopleRoute } from '@/app/routes/app/admin-people';
+import { AdminOrganisationsRoute } from '@/app/routes/app/admin-organisations';
+import { AdminStorageRoute } from '@/app/routes/app/admin-storage';
+import { AdminAuditRoute } from '@/app/routes/app/admin-audit';
+import { AdminMailRoute } from '@/app/routes/app/admin-mail';
+import { OrderRequestRoute } from '@/app/routes/app/order-request';
 
 const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInRoute />, errorElement: <RouteErrorPage /> },
+  // Public pages: no sign-in.
+  { path: '/verify', element: <VerifyCertificateRoute />, errorElement: <RouteErrorPage /> },
+  { path: '/verify/:code', element: <VerifyCertificateRoute />, errorElement: <RouteErrorPage /> },
+  { path: '/invitation/:token', element: <AcceptInvitationRoute />, errorElement: <RouteErrorPage /> },
+  { path: '/password-reset/:token', element: <ChoosePasswordRoute />, errorElement: <RouteErrorPage /> },
   {
     path: '/',
     element: <AppRoot />,
@@ -93,6 +107,54 @@ const router = createBrowserRouter([
         element: (
           <RequireRole roles={['client']}>
             <OrdersRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'orders/request',
+        element: (
+          <RequireRole roles={['client']}>
+            <OrderRequestRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'admin/people',
+        element: (
+          <RequireRole roles={['admin']}>
+            <AdminPeopleRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'admin/organisations',
+        element: (
+          <RequireRole roles={['admin']}>
+            <AdminOrganisationsRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'admin/storage',
+        element: (
+          <RequireRole roles={['admin']}>
+            <AdminStorageRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'admin/audit',
+        element: (
+          <RequireRole roles={['admin']}>
+            <AdminAuditRoute />
+          </RequireRole>
+        ),
+      },
+      {
+        path: 'admin/mail',
+        element: (
+          <RequireRole roles={['admin']}>
+            <AdminMailRoute />
           </RequireRole>
         ),
       },

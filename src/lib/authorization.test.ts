@@ -22,9 +22,20 @@ describe('authorization', () => {
 
   it('navigationFor lists only the pages a person’s roles reach', () => {
     const client = navigationFor({ roles: ['client'] });
-    expect(client.flatMap((group) => group.entries.map((entry) => entry.to))).toEqual(['/orders', '/work-orders']);
+    expect(client.flatMap((group) => group.entries.map((entry) => entry.to))).toEqual(['/orders', '/orders/request', '/work-orders']);
     const labLead = navigationFor({ roles: ['admin', 'reviewer'] });
-    expect(labLead.flatMap((group) => group.entries.map((entry) => entry.to))).toEqual(['/', '/review', '/system', '/work-orders', '/equipment']);
+    expect(labLead.flatMap((group) => group.entries.map((entry) => entry.to))).toEqual([
+      '/',
+      '/review',
+      '/system',
+      '/admin/people',
+      '/admin/organisations',
+      '/admin/storage',
+      '/admin/audit',
+      '/admin/mail',
+      '/work-orders',
+      '/equipment',
+    ]);
     expect(navigationFor({ roles: [] })).toEqual([]);
   });
 

@@ -30,6 +30,18 @@ export const ROLE_HOMES: Record<Role, RoleHome> = {
 
 export const OVERVIEW_PATH = '/';
 
+/** Further pages under a role's group, after its home. */
+export const ROLE_EXTRA_PAGES: Partial<Record<Role, { label: string; to: string }[]>> = {
+  client: [{ label: 'Request new work', to: '/orders/request' }],
+  admin: [
+    { label: 'People', to: '/admin/people' },
+    { label: 'Organisations', to: '/admin/organisations' },
+    { label: 'Storage and retention', to: '/admin/storage' },
+    { label: 'Audit log', to: '/admin/audit' },
+    { label: 'Outbound mail', to: '/admin/mail' },
+  ],
+};
+
 /** The user's known roles, without duplicates, in the order of the work. */
 export function rolesInWorkOrder(roles: readonly string[]): Role[] {
   return ROLES.filter((role) => roles.includes(role));
@@ -50,7 +62,7 @@ export function navigationFor(user: Pick<User, 'roles'>): NavigationGroup[] {
   if (roles.length > 1) groups.push({ label: 'All roles', entries: [{ label: 'Overview', to: OVERVIEW_PATH }] });
   for (const role of roles) {
     const home = ROLE_HOMES[role];
-    groups.push({ label: home.group, entries: [{ label: home.label, to: home.path }] });
+    groups.push({ label: home.group, entries: [{ label: home.label, to: home.path }, ...(ROLE_EXTRA_PAGES[role] ?? [])] });
   }
   // The records the work runs through; a client's work-order list is filtered to its own organisation by the server.
   const records: NavigationGroup['entries'] = [];

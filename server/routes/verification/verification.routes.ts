@@ -1,0 +1,3 @@
+import type { RouteDefinition } from '../route-definition';
+
+export const verificationRoutes: RouteDefinition[] = [];
