@@ -389,7 +389,7 @@ export const certificates = pgTable(
     id: uuid('id').primaryKey().defaultRandom(),
     /** Human-facing number shared by all revisions, e.g. C-2026-0007. */
     number: text('number').notNull(),
-    /** 0 for the first issue, then 1, 2, … */
+    /** 1 for the first issue, then 2, 3, … (as printed on the certificate). */
     revision: integer('revision').notNull(),
     measurementId: uuid('measurement_id')
       .notNull()
