@@ -36,6 +36,7 @@ import { recordMeasurementChange } from './measurement-change';
 import { calibrationStateOf, toEquipmentItem } from './equipment';
 import { deleteFrameObjects, frameChangeRefusal, sweepObjectPrefix, toFrame, type StoreFrameDeps } from './frame-storage';
 import { allocateNumber, type Queryable } from './numbering';
+import { listMeasurementCertificates } from './certificates/certificate-records';
 
 type MeasurementRow = typeof measurements.$inferSelect;
 type EquipmentRow = typeof equipment.$inferSelect;
@@ -359,6 +360,11 @@ export async function getMeasurementDetail(db: Database, measurementId: string, 
   );
 
   const analyses = await listAnalysisRunSummaries(db, m.id);
+  const reviewerIds = [m.submittedById, m.approvedById].filter((id): id is string => Boolean(id));
+  const reviewers = reviewerIds.length
+    ? new Map((await db.select({ id: people.id, name: people.name }).from(people).where(inArray(people.id, reviewerIds))).map((p) => [p.id, p.name]))
+    : new Map<string, string>();
+  const personOf = (id: string | null) => (id && reviewers.has(id) ? { id, name: reviewers.get(id)! } : null);
   const currentAnalysis = m.currentAnalysisId ? await findAnalysisRunById(db, m.currentAnalysisId) : null;
 
   return {
@@ -396,6 +402,13 @@ export async function getMeasurementDetail(db: Database, measurementId: string, 
     sweeps: sweepRows.map((s) => toSweepDetail(s, frameRows.get(s.id) ?? [])),
     currentAnalysis,
     analyses,
+    review: {
+      submittedAt: m.submittedAt?.toISOString() ?? null,
+      submittedBy: personOf(m.submittedById),
+      approvedAt: m.approvedAt?.toISOString() ?? null,
+      approvedBy: personOf(m.approvedById),
+    },
+    certificates: await listMeasurementCertificates(db, m.id),
   };
 }
 

@@ -7,6 +7,8 @@
  */
 import { z } from 'zod';
 import type { AnalysisRun, AnalysisRunSummary, PersonReference } from './analyses';
+import type { CertificateSummary } from './certificates';
+import type { MeasurementReviewState } from './review';
 import type { EquipmentItem, EquipmentKindName } from './equipment';
 import type { Frame } from './frames';
 import { lensMeasurementStatuses, type LensKind } from './lenses';
@@ -437,6 +439,10 @@ export interface MeasurementDetail {
   currentAnalysis: AnalysisRun | null;
   /** Every run, newest first. */
   analyses: AnalysisRunSummary[];
+  /** Who submitted and approved it, and when (shared/schemas/review.ts). */
+  review: MeasurementReviewState;
+  /** Every certificate revision, newest first. */
+  certificates: CertificateSummary[];
 }
 
 export interface MeasurementResponse {

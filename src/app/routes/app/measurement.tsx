@@ -23,6 +23,8 @@ import { SweepFramesPanel } from '@/features/measurements/components/sweep-frame
 import { frameGeometry, framesByManifestFile } from '@/features/measurements/utils/frame-files';
 import { methodRequirements } from '@/features/measurements/utils/method-requirements';
 import { MeasurementResultView } from '@/features/measurement-result/components/measurement-result-view';
+import { ReviewPanel } from '@/features/review/components/review-panel';
+import { CertificatesPanel } from '@/features/certificates/components/certificates-panel';
 
 const linkClass = 'underline decoration-rule-strong underline-offset-4 hover:text-ink';
 
@@ -72,7 +74,9 @@ export function MeasurementRoute() {
     [],
   );
   const onRunFinished = useCallback(() => setChosenVersion(null), []);
+  const isCertified = measurementQuery.data?.status === 'certified';
   const isTechnician = user ? hasAnyRole(user, ['technician']) : false;
+  const mayEditBench = isTechnician && !isCertified;
 
   if (measurementQuery.isPending) return <LoadingNote what="the measurement" />;
   if (measurementQuery.isError) {
@@ -136,6 +140,22 @@ export function MeasurementRoute() {
         </PageHeader>
       </div>
 
+      {user ? (
+        <Section title="Review" description="Submission, a second person’s approval or return with comments, and the thread.">
+          <RegionErrorBoundary region="Review">
+            <ReviewPanel measurement={measurement} user={user} />
+          </RegionErrorBoundary>
+        </Section>
+      ) : null}
+
+      {user && (measurement.certificates.length > 0 || measurement.status === 'approved') ? (
+        <Section title="Certificates" description="Every revision is kept; a reissue supersedes the previous one and states why.">
+          <RegionErrorBoundary region="Certificates">
+            <CertificatesPanel measurement={measurement} user={user} />
+          </RegionErrorBoundary>
+        </Section>
+      ) : null}
+
       <Section title="Set-up" description="As recorded when the measurement was created; the analysis uses these equipment values.">
         <RegionErrorBoundary region="Set-up">
           <MeasurementSetupSummary measurement={measurement} />
@@ -145,19 +165,19 @@ export function MeasurementRoute() {
       <Section
         title="Frames and rail readings"
         description={
-          isTechnician
+          mayEditBench
             ? `Upload each sweep’s through-focus frames, then give every frame its rail reading (mm): the ${requirements.moving === 'sensor' ? 'sensor' : 'lens'} position when it was taken.`
             : `Each sweep’s through-focus frames and their rail readings (mm): the ${requirements.moving === 'sensor' ? 'sensor' : 'lens'} position when each was taken.`
         }
       >
-        {isTechnician ? <SafetyNote context="bench" /> : null}
+        {mayEditBench ? <SafetyNote context="bench" /> : null}
         <div className="space-y-4">
           {sweeps.map((sweep) => (
             <RegionErrorBoundary key={sweep.id} region={`Sweep ${sweep.position + 1}`}>
               <SweepFramesPanel
                 measurementId={measurement.id}
                 status={measurement.status}
-                mayEdit={isTechnician}
+                mayEdit={mayEditBench}
                 sweep={sweep}
                 sweepCount={sweeps.length}
                 hasAnalyses={measurement.analyses.length > 0}
@@ -168,7 +188,7 @@ export function MeasurementRoute() {
         </div>
       </Section>
 
-      {isTechnician ? (
+      {mayEditBench ? (
         <Section title="Analysis" description="Every run is kept as a version; a re-run never overwrites an earlier one.">
           <RegionErrorBoundary region="Analysis">
             <AnalysisPanel measurement={measurement} uploadsInFlight={uploadsInFlight} onRunFinished={onRunFinished} />

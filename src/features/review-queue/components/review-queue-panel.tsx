@@ -1,40 +1,40 @@
-import { ConformityMark } from '@/components/ui/conformity-mark';
 import { EmptyState } from '@/components/ui/empty-state';
-import { Quantity } from '@/components/ui/quantity';
+import { LoadingNote } from '@/components/ui/loading-note';
+import { ProblemNote } from '@/components/ui/problem-note';
 import { FocusCurveIllustration } from '@/components/illustrations/focus-curve';
+import { useReviewQueue } from '../api/get-review-queue';
+import { ReviewQueueTable } from './review-queue-table';
 
-/** The reviewer's queue of submitted measurements; empty until measurements exist. */
+/** The reviewer's queue: submitted measurements oldest first, then approved ones still without a certificate. */
 export function ReviewQueuePanel() {
-  return (
-    <div className="space-y-4">
+  const queue = useReviewQueue();
+  if (queue.isPending) return <LoadingNote what="the review queue" />;
+  if (queue.isError) return <ProblemNote title="The review queue could not be loaded" message={queue.error.message} />;
+  const { submitted, awaitingCertificate } = queue.data;
+  if (submitted.length === 0 && awaitingCertificate.length === 0) {
+    return (
       <EmptyState
         illustration={<FocusCurveIllustration />}
         title="Nothing is waiting for review"
         willShow={[
           'Submitted measurements, oldest first, with the technician who ran them',
-          'The focus curve, focal length with its expanded uncertainty, and the uncertainty budget',
-          'Approve or return with comments; certificates are issued from here once approved',
+          'The focal length with its expanded uncertainty, and how long each has waited',
+          'Approved measurements whose certificate is still to be issued',
         ]}
       >
-        <p>
-          A technician’s measurement lands here when they submit it. You cannot approve a measurement you performed
-          yourself; those go to another reviewer.
-        </p>
+        <p>A technician’s measurement lands here when they submit it. You cannot approve a measurement you performed or submitted yourself.</p>
       </EmptyState>
-      <div className="rounded-sheet border border-rule bg-sheet px-4 py-3">
-        <p className="text-caption font-semibold uppercase tracking-wider text-ink-faint">How results will read</p>
-        <div className="mt-2 flex flex-wrap items-center gap-x-6 gap-y-2 text-small text-ink-soft">
-          <span className="inline-flex items-baseline gap-2">
-            focal length <Quantity value={99.93} uncertainty={0.12} unit="mm" />
-          </span>
-          <ConformityMark decision="conforms" size="sm" />
-          <ConformityMark decision="does-not-conform" size="sm" />
-          <ConformityMark decision="undecided" size="sm" />
-        </div>
-        <p className="mt-2 text-caption text-ink-faint">
-          Under guarded acceptance (ILAC-G8), “Undecided” means the value lies within one expanded uncertainty of a tolerance limit, so neither decision is safe.
-        </p>
-      </div>
+    );
+  }
+  return (
+    <div className="space-y-6">
+      <ReviewQueueTable caption="Submitted for review, oldest first" rows={submitted} since="submitted" emptyText="No measurement is waiting for review." />
+      <ReviewQueueTable
+        caption="Approved, certificate not yet issued"
+        rows={awaitingCertificate}
+        since="approved"
+        emptyText="Every approved measurement has its certificate."
+      />
     </div>
   );
 }

@@ -1,0 +1,197 @@
+/**
+ * CertificateData for a measurement, read from the database inside the
+ * issuing transaction: the lab, the client, the work order, the lens, the
+ * method, equipment with calibration references and recorded overrides,
+ * environment, the current analysis run's result, the conformity decision
+ * under the work order's rule, who performed and who authorised.
+ */
+import { and, asc, eq, inArray } from 'drizzle-orm';
+import { decideConformity } from '../../../shared/measure/conformity/decide-conformity';
+import { toleranceLimits } from '../../../shared/measure/conformity/tolerance-limits';
+import type { MeasurementResult, SweepResult } from '../../../shared/schemas/measurement-result';
+import type { CertificateData } from '../../certificates/certificate-data';
+import { analysisRuns, equipment, lenses, measurements, organisationContacts, organisations, people, workOrders } from '../../db/schema';
+import { invariant } from '../../invariant';
+import type { Queryable } from '../numbering';
+import { FALLBACK_LAB_NAME, LAB_IDENTITY } from './lab-identity';
+
+type Sweep = CertificateData['results']['sweeps'][number];
+
+const isoDate = (date: Date) => date.toISOString().slice(0, 10);
+
+function sweepLabel(sweep: SweepResult, index: number, method: MeasurementResult['method']): string {
+  if (method === 'multi-conjugate' && typeof sweep.objectPositionMm === 'number' && typeof sweep.lensPositionMm === 'number') {
+    return `Sweep ${index + 1} (object ${Math.abs(sweep.lensPositionMm - sweep.objectPositionMm).toFixed(0)} mm from lens)`;
+  }
+  if (method === 'displacement' && typeof sweep.objectPositionMm === 'number' && typeof sweep.sensorPositionMm === 'number') {
+    return `Sweep ${index + 1} (D = ${Math.abs(sweep.sensorPositionMm - sweep.objectPositionMm).toFixed(0)} mm)`;
+  }
+  return `Sweep ${index + 1}`;
+}
+
+function certificateSweep(sweep: SweepResult, index: number, method: MeasurementResult['method']): Sweep {
+  const used = (sweep.frames ?? []).filter((f) => f.status === 'used' && f.focusValue !== null);
+  const fits = sweep.focusFits ?? [];
+  invariant(fits.length > 0, `sweep ${index + 1} of the result has no fitted focus curve`);
+  const first = fits[0];
+  const bestFocusPositionMm = sweep.bestFocusPositionsMm?.[0] ?? sweep.bestFocusPositionMm ?? first.bestFocusPositionMm;
+  const bestFocusStandardUncertaintyMm = sweep.bestFocusStandardUncertaintiesMm?.[0] ?? sweep.bestFocusStandardUncertaintyMm ?? first.standardUncertaintyMm;
+  const magnifications = (sweep.magnifications ?? (sweep.magnification === null ? [] : [sweep.magnification])).map(Math.abs).filter((m) => m > 0);
+  const second = method === 'displacement' ? fits[1] : undefined;
+  return {
+    label: sweepLabel(sweep, index, method),
+    magnifications,
+    focusCurve: {
+      positionsMm: used.map((f) => f.positionMm),
+      focusValues: used.map((f) => f.focusValue as number),
+      curve: first.curve,
+      bestFocusPositionMm,
+      bestFocusStandardUncertaintyMm,
+      ...(second
+        ? {
+            secondPeak: {
+              curve: second.curve,
+              bestFocusPositionMm: sweep.bestFocusPositionsMm?.[1] ?? second.bestFocusPositionMm,
+              bestFocusStandardUncertaintyMm: sweep.bestFocusStandardUncertaintiesMm?.[1] ?? second.standardUncertaintyMm,
+            },
+          }
+        : {}),
+    },
+  };
+}
+
+export interface CertificateIdentity {
+  number: string;
+  revision: number;
+  issueDate: string;
+  replaces?: { revision: number; reason: string };
+  verificationCode: string;
+  publicBaseUrl: string;
+}
+
+/** Reads everything the certificate prints; the caller checks and renders it (renderCertificatePdf parses it). */
+export async function buildCertificateData(tx: Queryable, measurementId: string, identity: CertificateIdentity): Promise<CertificateData> {
+  const [row] = await tx
+    .select({ measurement: measurements, lens: lenses, workOrder: workOrders, client: organisations })
+    .from(measurements)
+    .innerJoin(lenses, eq(lenses.id, measurements.lensId))
+    .innerJoin(workOrders, eq(workOrders.id, lenses.workOrderId))
+    .innerJoin(organisations, eq(organisations.id, workOrders.organisationId))
+    .where(eq(measurements.id, measurementId));
+  invariant(row, `measurement ${measurementId} exists when its certificate is built`);
+  const { measurement: m, lens, workOrder, client } = row;
+  invariant(m.currentAnalysisId && m.approvedById && m.approvedAt, `measurement ${m.number} is approved with a current analysis`);
+
+  const [run] = await tx.select().from(analysisRuns).where(and(eq(analysisRuns.id, m.currentAnalysisId), eq(analysisRuns.status, 'succeeded')));
+  invariant(run?.result, `measurement ${m.number}'s current analysis has a result`);
+  const result = run.result as unknown as MeasurementResult;
+
+  const personIds = [m.performedById, m.approvedById, ...m.equipmentOverrides.map((o) => o.recordedById)].filter((id): id is string => Boolean(id));
+  const personRows = await tx.select({ id: people.id, name: people.name, organisationId: people.organisationId }).from(people).where(inArray(people.id, personIds));
+  const nameOf = new Map(personRows.map((p) => [p.id, p.name]));
+  const approver = personRows.find((p) => p.id === m.approvedById);
+
+  const labRows = await tx.select({ id: organisations.id, name: organisations.name }).from(organisations).where(eq(organisations.kind, 'lab')).orderBy(asc(organisations.createdAt));
+  const lab = labRows.find((o) => o.id === approver?.organisationId) ?? labRows[0];
+
+  const contacts = await tx
+    .select()
+    .from(organisationContacts)
+    .where(and(eq(organisationContacts.organisationId, client.id), eq(organisationContacts.receivesCertificates, true)))
+    .orderBy(asc(organisationContacts.createdAt))
+    .limit(1);
+  const contact = contacts[0];
+
+  const equipmentIds = [m.cameraId, m.targetId, m.railScaleId, m.collimatorId, m.auxiliaryLensId].filter((id): id is string => Boolean(id));
+  const equipmentRows = await tx.select().from(equipment).where(inArray(equipment.id, equipmentIds));
+  const byId = new Map(equipmentRows.map((e) => [e.id, e]));
+
+  const measuredOn = m.measuredOn ?? isoDate(run.finishedAt ?? run.createdAt);
+  const approvedOn = isoDate(m.approvedAt);
+  const limits = toleranceLimits({ nominalFocalLengthMm: lens.nominalFocalLengthMm, tolerancePercent: lens.tolerancePercent ?? undefined, toleranceMm: lens.tolerancePercent === null ? (lens.toleranceMm ?? undefined) : undefined });
+  const decided = decideConformity({
+    measuredValue: result.focalLengthMm,
+    expandedUncertainty: result.expandedUncertaintyMm,
+    lowerLimit: limits.lowerLimit,
+    upperLimit: limits.upperLimit,
+    rule: workOrder.decisionRule,
+  });
+  const f = result.focalLengthMm;
+  const dof = result.effectiveDegreesOfFreedom;
+
+  return {
+    certificate: {
+      number: identity.number,
+      revision: identity.revision,
+      issueDate: identity.issueDate,
+      ...(identity.replaces ? { replaces: identity.replaces } : {}),
+    },
+    lab: { name: lab?.name ?? FALLBACK_LAB_NAME, ...LAB_IDENTITY },
+    client: {
+      name: client.name,
+      addressLines: contact
+        ? [[contact.name, contact.position].filter(Boolean).join(', '), contact.email]
+        : ['Contact details held on the laboratory’s work order file'],
+      orderReference: workOrder.clientReference ? `${workOrder.clientReference} (work order ${workOrder.number})` : `Work order ${workOrder.number}`,
+    },
+    item: {
+      identifier: lens.identifier,
+      description: lens.description.trim() || 'Lens (no description recorded)',
+      ...(lens.partNumber ? { partNumber: lens.partNumber } : {}),
+      nominalFocalLengthMm: lens.nominalFocalLengthMm,
+      tolerance: lens.tolerancePercent !== null ? { percent: lens.tolerancePercent } : { mm: lens.toleranceMm ?? undefined },
+    },
+    measurement: {
+      method: m.method,
+      dates: [measuredOn],
+      environment: { temperatureC: m.temperatureC ?? Number.NaN, relativeHumidityPercent: m.relativeHumidityPercent ?? Number.NaN },
+    },
+    equipment: equipmentIds.map((id) => {
+      const item = byId.get(id);
+      invariant(item, `equipment ${id} of measurement ${m.number} exists`);
+      const override = m.equipmentOverrides.find((o) => o.equipmentId === id);
+      return {
+        kind: item.kind,
+        identifier: item.identifier,
+        description: item.description.trim() || item.kind,
+        calibrationReference: item.calibrationReference,
+        calibrationDueDate: item.calibrationDueDate,
+        ...(override
+          ? { override: { reason: override.reason, approvedBy: nameOf.get(override.recordedById) ?? 'not recorded', approvedOn: override.recordedAt.slice(0, 10) } }
+          : {}),
+      };
+    }),
+    results: {
+      focalLengthMm: f,
+      standardUncertaintyMm: result.standardUncertaintyMm,
+      expandedUncertaintyMm: result.expandedUncertaintyMm,
+      coverageFactor: result.coverageFactor,
+      coverageProbability: result.coverageProbability ?? 0.95,
+      ...(typeof dof === 'number' && dof > 0 ? { effectiveDegreesOfFreedom: dof } : {}),
+      opticalPowerDioptres: 1000 / f,
+      opticalPowerExpandedUncertaintyDioptres: result.opticalPowerExpandedUncertaintyDioptres ?? (1000 * result.expandedUncertaintyMm) / f ** 2,
+      ...(result.backFocalDistanceMm !== undefined
+        ? { backFocalDistanceMm: result.backFocalDistanceMm, backFocalDistanceStandardUncertaintyMm: result.backFocalDistanceStandardUncertaintyMm }
+        : {}),
+      ...(result.principalPlanes ? { principalPlanes: result.principalPlanes } : {}),
+      sweeps: result.sweeps.map((sweep, index) => certificateSweep(sweep, index, result.method)),
+      uncertaintyBudget: result.uncertaintyBudget.map((r) => ({
+        source: r.source,
+        value: r.value,
+        unit: r.unit,
+        standardUncertainty: r.standardUncertainty,
+        // JSON turns an infinite ν into null; ν ≤ 0 never comes from the engine but must not reach print.
+        degreesOfFreedom: typeof r.degreesOfFreedom === 'number' && r.degreesOfFreedom > 0 ? r.degreesOfFreedom : null,
+        sensitivity: r.sensitivity,
+        contributionMm: r.contributionMm,
+        varianceShare: r.varianceShare,
+      })),
+    },
+    conformity: { rule: workOrder.decisionRule, decision: decided.decision, lowerLimitMm: limits.lowerLimit, upperLimitMm: limits.upperLimit },
+    people: {
+      performedBy: [{ name: (m.performedById && nameOf.get(m.performedById)) || 'not recorded', role: 'Bench technician', date: measuredOn }],
+      authorisedBy: { name: approver?.name ?? 'not recorded', role: 'Reviewer', date: approvedOn },
+    },
+    verification: { code: identity.verificationCode, publicBaseUrl: identity.publicBaseUrl },
+  };
+}
