@@ -2,6 +2,8 @@ import type { Readable } from 'node:stream';
 import {
   CreateBucketCommand,
   DeleteObjectCommand,
+  DeleteObjectsCommand,
+  ListObjectsCommand,
   GetObjectCommand,
   HeadBucketCommand,
   HeadObjectCommand,
@@ -12,6 +14,36 @@ import {
 } from '@aws-sdk/client-s3';
 import { Upload } from '@aws-sdk/lib-storage';
 import type { Env } from '../env';
+import { HttpError } from '../http-error';
+import { HttpStatus } from '../http-status';
+
+export const OBJECT_STORAGE_UNAVAILABLE_MESSAGE = 'Object storage cannot be reached just now; nothing was changed. Please try again in a minute.';
+
+const NETWORK_FAILURE_CODES = /^(ECONNREFUSED|ECONNRESET|ECONNABORTED|EPIPE|ETIMEDOUT|EHOSTUNREACH|ENETUNREACH|ENOTFOUND|EAI_AGAIN)$/;
+
+/** True when the store could not be reached at all (as opposed to answering with an error). */
+export function isObjectStorageUnreachable(error: unknown): boolean {
+  for (let current = error, depth = 0; current instanceof Error && depth < 5; current = current.cause, depth++) {
+    const code = (current as { code?: unknown }).code;
+    if (typeof code === 'string' && NETWORK_FAILURE_CODES.test(code)) return true;
+    if (current.name === 'TimeoutError' || /^socket hang up$/i.test(current.message)) return true;
+  }
+  return false;
+}
+
+/** Runs a storage call, turning "cannot connect" into a 503 with a sentence; other errors pass unchanged. */
+async function reachable<T>(work: () => Promise<T>): Promise<T> {
+  try {
+    return await work();
+  } catch (error) {
+    if (isObjectStorageUnreachable(error)) {
+      const unavailable = new HttpError(HttpStatus.SERVICE_UNAVAILABLE, OBJECT_STORAGE_UNAVAILABLE_MESSAGE);
+      unavailable.cause = error;
+      throw unavailable;
+    }
+    throw error;
+  }
+}
 
 export interface StoredObjectInfo {
   key: string;
@@ -26,6 +58,14 @@ export interface StoredObjectStream {
   sizeBytes?: number;
   contentType?: string;
 }
+
+export interface DeleteObjectsOutcome {
+  deleted: string[];
+  failed: { key: string; message: string }[];
+}
+
+/** S3's limit on the keys of one DeleteObjects request. */
+const DELETE_OBJECTS_BATCH = 1000;
 
 export interface PutObjectOptions {
   contentType?: string;
@@ -44,6 +84,10 @@ export interface ObjectStorage {
   /** null when the object does not exist. */
   headObject(key: string): Promise<StoredObjectInfo | null>;
   listObjects(prefix: string): Promise<StoredObjectInfo[]>;
+  /** The objects under `prefix` one listing page at a time (at most 1000 each), in key order, so a whole bucket never sits in memory. */
+  listObjectPages(prefix: string): AsyncGenerator<StoredObjectInfo[]>;
+  /** Deletes many keys with DeleteObjects (1000 per call); a key that did not exist counts as deleted, as in S3. */
+  deleteObjects(keys: readonly string[]): Promise<DeleteObjectsOutcome>;
   deleteObject(key: string): Promise<void>;
   close(): void;
 }
@@ -82,6 +126,49 @@ export function createObjectStorage(settings: ObjectStorageSettings): ObjectStor
   const client = createS3Client(settings);
   const bucket = settings.S3_BUCKET;
 
+  async function putObjectOnce(key: string, body: Buffer | Uint8Array | string | Readable, options: PutObjectOptions): Promise<void> {
+    if (isReadable(body)) {
+      // Upload handles streams of unknown length (multipart above 5 MiB).
+      const upload = new Upload({
+        client,
+        params: { Bucket: bucket, Key: key, Body: body, ContentType: options.contentType, Metadata: options.metadata },
+      });
+      await upload.done();
+      return;
+    }
+    await client.send(new PutObjectCommand({ Bucket: bucket, Key: key, Body: body, ContentType: options.contentType, Metadata: options.metadata }));
+  }
+
+  async function headObjectOnce(key: string): Promise<StoredObjectInfo | null> {
+    try {
+      const response = await client.send(new HeadObjectCommand({ Bucket: bucket, Key: key }));
+      return {
+        key,
+        sizeBytes: response.ContentLength ?? 0,
+        lastModified: response.LastModified ?? null,
+        contentType: response.ContentType,
+        etag: response.ETag,
+      };
+    } catch (error) {
+      if (isNotFound(error)) return null;
+      throw error;
+    }
+  }
+
+  async function listObjectsOnce(prefix: string): Promise<StoredObjectInfo[]> {
+    const found: StoredObjectInfo[] = [];
+    let continuationToken: string | undefined;
+    do {
+      const page = await client.send(new ListObjectsV2Command({ Bucket: bucket, Prefix: prefix, ContinuationToken: continuationToken }));
+      for (const item of page.Contents ?? []) {
+        if (!item.Key) continue;
+        found.push({ key: item.Key, sizeBytes: item.Size ?? 0, lastModified: item.LastModified ?? null, etag: item.ETag });
+      }
+      continuationToken = page.IsTruncated ? page.NextContinuationToken : undefined;
+    } while (continuationToken);
+    return found;
+  }
+
   return {
     client,
     bucket,
@@ -99,67 +186,86 @@ export function createObjectStorage(settings: ObjectStorageSettings): ObjectStor
       await client.send(new HeadBucketCommand({ Bucket: bucket }));
     },
 
-    async putObject(key, body, options = {}) {
-      if (isReadable(body)) {
-        // Upload handles streams of unknown length (multipart above 5 MiB).
-        const upload = new Upload({
-          client,
-          params: { Bucket: bucket, Key: key, Body: body, ContentType: options.contentType, Metadata: options.metadata },
-        });
-        await upload.done();
-        return;
-      }
-      await client.send(
-        new PutObjectCommand({ Bucket: bucket, Key: key, Body: body, ContentType: options.contentType, Metadata: options.metadata }),
-      );
+    putObject(key, body, options = {}) {
+      return reachable(() => putObjectOnce(key, body, options));
     },
 
-    async getObjectBuffer(key) {
-      const response = await client.send(new GetObjectCommand({ Bucket: bucket, Key: key }));
-      if (!response.Body) throw new Error(`Object storage returned no body for ${key}.`);
-      return Buffer.from(await response.Body.transformToByteArray());
+    getObjectBuffer(key) {
+      return reachable(async () => {
+        const response = await client.send(new GetObjectCommand({ Bucket: bucket, Key: key }));
+        if (!response.Body) throw new Error(`Object storage returned no body for ${key}.`);
+        return Buffer.from(await response.Body.transformToByteArray());
+      });
     },
 
-    async getObjectStream(key) {
-      const response = await client.send(new GetObjectCommand({ Bucket: bucket, Key: key }));
-      if (!response.Body) throw new Error(`Object storage returned no body for ${key}.`);
-      return { stream: response.Body as Readable, sizeBytes: response.ContentLength, contentType: response.ContentType };
+    getObjectStream(key) {
+      return reachable(async () => {
+        const response = await client.send(new GetObjectCommand({ Bucket: bucket, Key: key }));
+        if (!response.Body) throw new Error(`Object storage returned no body for ${key}.`);
+        return { stream: response.Body as Readable, sizeBytes: response.ContentLength, contentType: response.ContentType };
+      });
     },
 
-    async headObject(key) {
-      try {
-        const response = await client.send(new HeadObjectCommand({ Bucket: bucket, Key: key }));
-        return {
-          key,
-          sizeBytes: response.ContentLength ?? 0,
-          lastModified: response.LastModified ?? null,
-          contentType: response.ContentType,
-          etag: response.ETag,
-        };
-      } catch (error) {
-        if (isNotFound(error)) return null;
-        throw error;
-      }
+    headObject(key) {
+      return reachable(() => headObjectOnce(key));
     },
 
-    async listObjects(prefix) {
-      const found: StoredObjectInfo[] = [];
-      let continuationToken: string | undefined;
-      do {
-        const page = await client.send(
-          new ListObjectsV2Command({ Bucket: bucket, Prefix: prefix, ContinuationToken: continuationToken }),
-        );
+    listObjects(prefix) {
+      return reachable(() => listObjectsOnce(prefix));
+    },
+
+    async *listObjectPages(prefix) {
+      // ListObjects (v1) with Marker = the last key seen, not v2's continuation token:
+      // s3rver 3.7 makes its v2 tokens with DES, which OpenSSL 3 (Node 18+) lacks, so
+      // every truncated v2 listing there fails with InternalError. Real S3 serves both.
+      let marker: string | undefined;
+      for (;;) {
+        const page = await reachable(() => client.send(new ListObjectsCommand({ Bucket: bucket, Prefix: prefix || undefined, Marker: marker })));
+        const items: StoredObjectInfo[] = [];
         for (const item of page.Contents ?? []) {
           if (!item.Key) continue;
-          found.push({ key: item.Key, sizeBytes: item.Size ?? 0, lastModified: item.LastModified ?? null, etag: item.ETag });
+          items.push({ key: item.Key, sizeBytes: item.Size ?? 0, lastModified: item.LastModified ?? null, etag: item.ETag });
         }
-        continuationToken = page.IsTruncated ? page.NextContinuationToken : undefined;
-      } while (continuationToken);
-      return found;
+        if (items.length > 0) yield items;
+        if (!page.IsTruncated || items.length === 0) return;
+        marker = page.NextMarker ?? items[items.length - 1].key;
+      }
     },
 
-    async deleteObject(key) {
-      await client.send(new DeleteObjectCommand({ Bucket: bucket, Key: key }));
+    async deleteObjects(keys) {
+      const outcome: DeleteObjectsOutcome = { deleted: [], failed: [] };
+      for (let start = 0; start < keys.length; start += DELETE_OBJECTS_BATCH) {
+        const batch = keys.slice(start, start + DELETE_OBJECTS_BATCH);
+        try {
+          const response = await client.send(
+            new DeleteObjectsCommand({ Bucket: bucket, Delete: { Objects: batch.map((key) => ({ Key: key })), Quiet: false } }),
+          );
+          const failedKeys = new Set<string>();
+          for (const error of response.Errors ?? []) {
+            if (!error.Key) continue;
+            failedKeys.add(error.Key);
+            outcome.failed.push({ key: error.Key, message: error.Message ?? error.Code ?? 'Object storage refused the delete.' });
+          }
+          // Only keys the store confirmed count as deleted; one it neither confirmed nor refused is not assumed gone.
+          const confirmed = new Set((response.Deleted ?? []).map((item) => item.Key).filter((key): key is string => Boolean(key)));
+          for (const key of batch) {
+            if (failedKeys.has(key)) continue;
+            if (confirmed.has(key)) outcome.deleted.push(key);
+            else outcome.failed.push({ key, message: 'Object storage did not confirm the delete.' });
+          }
+        } catch (error) {
+          // Reported per key, not thrown: the caller keeps what earlier batches deleted.
+          const message = isObjectStorageUnreachable(error) ? OBJECT_STORAGE_UNAVAILABLE_MESSAGE : error instanceof Error ? error.message : String(error);
+          for (const key of batch) outcome.failed.push({ key, message });
+        }
+      }
+      return outcome;
+    },
+
+    deleteObject(key) {
+      return reachable(async () => {
+        await client.send(new DeleteObjectCommand({ Bucket: bucket, Key: key }));
+      });
     },
 
     close() {

@@ -19,12 +19,13 @@ export function getFrameImage(deps: AppDeps, rendition: FrameRendition): Request
     const row = await findFrame(deps.db, frameId);
     const key = frameRenditionKey(row, rendition);
     if (!key) {
-      throw new HttpError(
-        HttpStatus.NOT_FOUND,
-        rendition === 'original'
-          ? `The original of frame ${row.fileName} was removed by retention; its thumbnail and preview remain.`
-          : `Frame ${row.fileName} has no ${rendition}.`,
-      );
+      if (rendition === 'original' && row.purgedAt) {
+        throw new HttpError(
+          HttpStatus.GONE,
+          `The original of frame ${row.fileName} was removed by retention on ${row.purgedAt.toISOString().slice(0, 10)}; its thumbnail, preview and the analysis results remain.`,
+        );
+      }
+      throw new HttpError(HttpStatus.NOT_FOUND, `Frame ${row.fileName} has no ${rendition}.`);
     }
     const etag = `"${row.sha256.slice(0, 40)}-${rendition}"`;
     res.setHeader('Cache-Control', IMAGE_CACHE_CONTROL);
