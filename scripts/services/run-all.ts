@@ -12,6 +12,7 @@ import { createLogger } from '../../server/services/logger';
 import { createObjectStorage } from '../../server/services/object-storage';
 import { createPasswordHasher } from '../../server/services/passwords';
 import { demoSignInLines, seedDemo } from '../seed/seed-demo';
+import { seedAfterDemoAnalyses } from '../seed/seed-after-demo-analyses';
 import { buildClient, type ClientBuild } from './client-build';
 import { createServiceLog } from './console-log';
 import { startNodeProcess, waitForHttp, type RunningNodeProcess } from './node-process';
@@ -178,6 +179,7 @@ async function main(): Promise<void> {
       });
     }
     log.step(`Started ${workerCount} analysis worker(s)`);
+    void seedReviewHistoryInBackground(stack.env.DATABASE_URL, stack.env, publicBaseUrl);
   }
 
   const lines = [
@@ -193,6 +195,31 @@ async function main(): Promise<void> {
     '',
   ];
   process.stdout.write(lines.join('\n'));
+}
+
+/** Once the workers have analysed the demo sweeps: submissions, a return, approvals and certificates. */
+async function seedReviewHistoryInBackground(databaseUrl: string, env: ServiceStack['env'], publicBaseUrl: string): Promise<void> {
+  const { pool, db } = createDatabase({ databaseUrl, maxConnections: 2 });
+  const storage = createObjectStorage({
+    S3_ENDPOINT: env.S3_ENDPOINT,
+    S3_REGION: env.S3_REGION,
+    S3_BUCKET: env.S3_BUCKET,
+    S3_ACCESS_KEY_ID: env.S3_ACCESS_KEY_ID,
+    S3_SECRET_ACCESS_KEY: env.S3_SECRET_ACCESS_KEY,
+    S3_FORCE_PATH_STYLE: true,
+  });
+  try {
+    await seedAfterDemoAnalyses({
+      deps: { db, storage, log: createLogger({ level: 'warn', name: 'seed' }), env: { PUBLIC_BASE_URL: publicBaseUrl } },
+      report: (m) => log.step(`Seed: ${m}`),
+      isStopping: () => stopping,
+    });
+  } catch (error) {
+    if (!stopping) log.warn(`The demo review history could not be seeded: ${error instanceof Error ? error.message : String(error)}`);
+  } finally {
+    storage.close();
+    await pool.end();
+  }
 }
 
 process.on('SIGINT', () => void stopEverything(0));
