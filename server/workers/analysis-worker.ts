@@ -19,6 +19,7 @@ import { INTERNAL_FAILURE_MESSAGE, recordAnalysisFailure } from '../services/ana
 import { createLogger, type Logger } from '../services/logger';
 import { createObjectStorage } from '../services/object-storage';
 import { requeueOrphanedRuns } from './requeue-orphaned-runs';
+import { startWorkerMailDispatcher } from '../services/outbound-mail/start-worker-mail-dispatcher';
 import { defaultScratchDir, runAnalysisJob } from './run-analysis-job';
 
 export interface AnalysisWorkerOptions {
@@ -134,9 +135,11 @@ if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) 
   }
   startAnalysisWorker({ env, log, queueSettings, engineConcurrency }).then(
     (worker) => {
+      // The outbox is sent from here, never from the web process, so no request waits on SMTP.
+      const mail = startWorkerMailDispatcher(env, log);
       const shutDown = (signal: string) => {
         log.info('Stopping the analysis worker.', { signal });
-        worker.stop().then(
+        Promise.all([worker.stop(), mail.stop()]).then(
           () => process.exit(0),
           (error: Error) => {
             log.error('The analysis worker did not stop cleanly.', { error });

@@ -1,12 +1,13 @@
-import { PageHeader } from '@/components/ui/page-header';
+import { useParams } from 'react-router-dom';
+import { VerificationPage } from '@/features/verification/components/verification-page';
 
+/** `/verify` and `/verify/:code`: public, outside the signed-in shell (a certificate's QR code points here). */
 export function VerifyCertificateRoute() {
+  const { code } = useParams();
   return (
-    <div className="space-y-6">
-      <title>Verify a certificate · Paraxia</title>
-      <PageHeader kicker="Paraxia" title="Verify a certificate">
-        Being built.
-      </PageHeader>
-    </div>
+    <>
+      <title>{code ? `Verify ${code} · Paraxia` : 'Verify a certificate · Paraxia'}</title>
+      <VerificationPage code={code ?? null} />
+    </>
   );
 }

@@ -1,0 +1,1 @@
+export { portalOrdersQuery, workRequestBody, type PortalOrdersQuery, type WorkRequestInput } from '../../../shared/schemas/portal';
