@@ -10,6 +10,9 @@ import { demoPeople, seedDemoPeople } from './demo-people';
 import { seedDemoEquipment } from './demo-equipment';
 import { seedDemoWorkOrders } from './demo-work-orders';
 import { seedDemoMeasurements, type DemoMeasurementDeps } from './demo-measurements';
+import { seedContactsAndRequests } from './seed-contacts-and-requests';
+
+const DEMO_CLIENT_REQUESTER_EMAIL = 'buyer@quillmere.example';
 
 export interface SeedContext {
   db: Database;
@@ -25,6 +28,8 @@ export interface SeedContext {
   lensIdsByKey: Record<string, string>;
   /** Object storage, the pool and a logger, for steps that store frames and queue analyses; absent, those steps are skipped. */
   services?: Omit<DemoMeasurementDeps, 'db'>;
+  /** For links in the mail that seeding queues. */
+  publicBaseUrl: string;
   report(message: string): void;
 }
 
@@ -80,6 +85,21 @@ export const demoSeedSteps: SeedStep[] = [
     },
   },
   {
+    name: 'client contacts and a work request',
+    async run(context) {
+      const requestedById = context.personIdsByEmail[DEMO_CLIENT_REQUESTER_EMAIL];
+      if (!requestedById) throw new Error(`The demo client ${DEMO_CLIENT_REQUESTER_EMAIL} must be seeded before the work request.`);
+      const { contactsAdded, requestNumber } = await seedContactsAndRequests(context.db, {
+        organisationIds: context.organisationIds as Record<DemoOrganisationKey, string>,
+        requestedById,
+        today: context.today,
+        baseUrl: context.publicBaseUrl,
+      });
+      if (contactsAdded > 0) context.report(`added ${contactsAdded} client contact(s)`);
+      if (requestNumber) context.report(`a client requested new work: ${requestNumber}`);
+    },
+  },
+  {
     name: 'measurements',
     async run(context) {
       if (!context.services) {
@@ -121,6 +141,8 @@ export async function seedDemo(options: {
   today?: string;
   /** Needed for the demo measurements (frames in object storage, analyses queued). */
   services?: Omit<DemoMeasurementDeps, 'db'>;
+  /** Links in queued mail; defaults to the local web address. */
+  publicBaseUrl?: string;
 }): Promise<SeedDemoResult> {
   const context: SeedContext = {
     db: options.db,
@@ -132,6 +154,7 @@ export async function seedDemo(options: {
     workOrderIdsByKey: {},
     lensIdsByKey: {},
     services: options.services,
+    publicBaseUrl: options.publicBaseUrl ?? 'http://localhost:8080',
     report: options.report ?? (() => undefined),
   };
   for (const step of demoSeedSteps) await step.run(context);

@@ -141,6 +141,7 @@ async function main(): Promise<void> {
       passwords: createPasswordHasher({ rounds: passwordHashRounds }),
       report: (m) => log.step(`Seed: ${m}`),
       services: { pool, storage, log: createLogger({ level: 'warn', name: 'seed' }) },
+      publicBaseUrl: process.env.PUBLIC_BASE_URL || `http://localhost:${webPort}`,
     });
   } finally {
     storage.close();
