@@ -58,6 +58,9 @@ const envSchema = z
       .default(12),
     SIGN_IN_RATE_LIMIT_MAX: positiveInteger('a whole number of failed sign-in attempts above 0').default(10),
     SIGN_IN_RATE_LIMIT_WINDOW_MS: positiveInteger('a whole number of milliseconds above 0').default(15 * 60 * 1000),
+    INVITATION_EXPIRY_HOURS: positiveInteger('a whole number of hours above 0').default(7 * 24),
+    PASSWORD_RESET_EXPIRY_MINUTES: positiveInteger('a whole number of minutes above 0').default(60),
+    PASSWORD_RESET_RATE_LIMIT_MAX: positiveInteger('a whole number of reset requests above 0').default(5),
 
     S3_ENDPOINT: urlWithProtocols(['http:', 'https:']).optional(),
     S3_REGION: z.string().min(1, { error: 'must not be empty.' }).default('us-east-1'),

@@ -6,6 +6,7 @@ import { HttpStatus } from '../../http-status';
 import { destroySession, regenerateSession, saveSession, SESSION_COOKIE_NAME, sessionCookieOptions } from '../../middleware/session';
 import { recordAuditEvent } from '../../services/audit-log';
 import { findPersonByEmail, normaliseEmail, toSessionUser } from '../../services/people';
+import { recordSignIn } from '../../services/people/record-sign-in';
 import type { SignInBody } from './auth.schemas';
 
 export const SIGN_IN_FAILED_MESSAGE = 'That e-mail and password do not match an active account.';
@@ -56,6 +57,7 @@ export function signIn(deps: AppDeps): RequestHandler {
     await regenerateSession(req);
     req.session.personId = person.id;
     await saveSession(req);
+    await recordSignIn(deps.db, person.id);
     await recordAuditEvent(deps.db, {
       actorId: person.id,
       action: 'auth.sign-in',

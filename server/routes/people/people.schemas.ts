@@ -1,10 +1,11 @@
-import { z } from 'zod';
-
-export const listPeopleQuery = z.object({
-  active: z
-    .enum(['true', 'false'], { error: 'Field "active" must be true or false.' })
-    .transform((value) => value === 'true')
-    .optional(),
-});
-
-export type ListPeopleQuery = z.output<typeof listPeopleQuery>;
+export {
+  changeRolesBody,
+  completePasswordResetBody,
+  listPeopleQuery,
+  personIdParams,
+  requestPasswordResetBody,
+  type ChangeRolesBody,
+  type CompletePasswordResetBody,
+  type ListPeopleQuery,
+  type RequestPasswordResetBody,
+} from '../../../shared/schemas/admin';

@@ -1,18 +1,29 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import type { Person } from '@/types/api';
+import type { PeoplePage, PersonRole } from '@shared/schemas/admin';
 
 export const peopleQueryKey = ['people'] as const;
 
-export async function getPeople(): Promise<Person[]> {
-  const body = await api.get<{ people: Person[] }>('/api/people');
-  return body.people;
+export interface PeopleFilters {
+  q: string;
+  role: PersonRole | '';
+  active: 'true' | 'false' | '';
+  page: number;
+  pageSize: number;
 }
 
-export function getPeopleQueryOptions() {
-  return queryOptions({ queryKey: peopleQueryKey, queryFn: getPeople });
+export async function getPeople(filters: PeopleFilters): Promise<PeoplePage> {
+  const params = new URLSearchParams({ page: String(filters.page), pageSize: String(filters.pageSize) });
+  if (filters.q.trim()) params.set('q', filters.q.trim());
+  if (filters.role) params.set('role', filters.role);
+  if (filters.active) params.set('active', filters.active);
+  return api.get<PeoplePage>(`/api/people?${params}`);
 }
 
-export function usePeople() {
-  return useQuery(getPeopleQueryOptions());
+export function getPeopleQueryOptions(filters: PeopleFilters) {
+  return queryOptions({ queryKey: [...peopleQueryKey, filters], queryFn: () => getPeople(filters), placeholderData: keepPreviousData });
+}
+
+export function usePeople(filters: PeopleFilters) {
+  return useQuery(getPeopleQueryOptions(filters));
 }

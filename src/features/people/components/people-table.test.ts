@@ -1,20 +1,24 @@
 import { describe, expect, it } from 'vitest';
-import type { Person } from '@/types/api';
-import { filterPeople } from '@/features/people/components/people-table';
+import type { AdminPersonSummary } from '@shared/schemas/admin';
+import { countPeopleByRole } from '@/features/people/components/people-table';
 
-const lab = { id: 'o1', name: 'Larkspur Optical Test Laboratory', kind: 'lab' as const };
-const client = { id: 'o2', name: 'Quillmere Instruments', kind: 'client' as const };
-const PEOPLE: Person[] = [
-  { id: 'p1', name: 'Ada Brightwater', email: 'tech@larkspur-lab.example', roles: ['technician'], organisation: lab, active: true },
-  { id: 'p2', name: 'Rowan Ellery', email: 'review@larkspur-lab.example', roles: ['reviewer', 'technician'], organisation: lab, active: true },
-  { id: 'p3', name: 'Mira Quell', email: 'buyer@quillmere.example', roles: ['client'], organisation: client, active: false },
-];
+function person(roles: AdminPersonSummary['roles'], active: boolean, lastSignInAt: string | null): AdminPersonSummary {
+  return { id: Math.random().toString(), email: 'x@y.example', name: 'X', roles, organisation: null, active, createdAt: '', lastSignInAt, deactivatedAt: null };
+}
 
-describe('filterPeople', () => {
-  it('filterPeople matches name, e-mail, organisation and role label, ignoring case', () => {
-    expect(filterPeople(PEOPLE, 'ROWAN').map((p) => p.id)).toEqual(['p2']);
-    expect(filterPeople(PEOPLE, 'quillmere').map((p) => p.id)).toEqual(['p3']);
-    expect(filterPeople(PEOPLE, 'technician').map((p) => p.id)).toEqual(['p1', 'p2']);
-    expect(filterPeople(PEOPLE, '  ').map((p) => p.id)).toEqual(['p1', 'p2', 'p3']);
+describe('countPeopleByRole', () => {
+  it('counts only active holders of each role, and those of them who never signed in', () => {
+    const counts = countPeopleByRole([
+      person(['technician', 'reviewer'], true, null),
+      person(['technician'], true, '2026-12-01T10:00:00Z'),
+      person(['technician'], false, null),
+      person(['admin'], true, '2026-12-01T10:00:00Z'),
+    ]);
+    expect(counts).toEqual([
+      { role: 'technician', active: 2, neverSignedIn: 1 },
+      { role: 'reviewer', active: 1, neverSignedIn: 1 },
+      { role: 'client', active: 0, neverSignedIn: 0 },
+      { role: 'admin', active: 1, neverSignedIn: 0 },
+    ]);
   });
 });

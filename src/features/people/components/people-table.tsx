@@ -1,67 +1,34 @@
-import { useId, useMemo, useState } from 'react';
+import { Link } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
 import { DataTable, type DataTableColumn } from '@/components/ui/data-table';
 import { LoadingNote } from '@/components/ui/loading-note';
 import { ProblemNote } from '@/components/ui/problem-note';
-import { ROLE_LABELS, rolesInWorkOrder } from '@/lib/authorization';
-import type { Person } from '@/types/api';
+import { ROLE_LABELS } from '@/lib/authorization';
+import { personRoles, type AdminPersonSummary, type PersonRole } from '@shared/schemas/admin';
 import { usePeople } from '@/features/people/api/get-people';
 
-const COLUMNS: DataTableColumn<Person>[] = [
-  { key: 'name', header: 'Name', cell: (person) => <span className="font-medium">{person.name}</span> },
-  { key: 'email', header: 'E-mail', cell: (person) => <span className="numerals text-caption">{person.email}</span> },
-  {
-    key: 'roles',
-    header: 'Roles',
-    cell: (person) => (
-      <span className="flex flex-wrap gap-1">
-        {rolesInWorkOrder(person.roles).map((role) => (
-          <span key={role} className="rounded-hair border border-rule bg-paper px-1.5 text-caption text-ink-soft">
-            {ROLE_LABELS[role]}
-          </span>
-        ))}
-      </span>
-    ),
-  },
-  {
-    key: 'organisation',
-    header: 'Organisation',
-    cell: (person) =>
-      person.organisation ? (
-        <span>
-          {person.organisation.name}{' '}
-          <span className="text-caption text-ink-faint">({person.organisation.kind === 'lab' ? 'lab' : 'client'})</span>
-        </span>
-      ) : (
-        <span className="text-ink-faint">—</span>
-      ),
-  },
-  {
-    key: 'status',
-    header: 'Status',
-    widthClass: 'w-24',
-    cell: (person) => (person.active ? 'Active' : <span className="italic">Inactive</span>),
-  },
-];
-
-export function filterPeople(people: readonly Person[], query: string): Person[] {
-  const needle = query.trim().toLowerCase();
-  if (needle === '') return [...people];
-  return people.filter((person) =>
-    [person.name, person.email, person.organisation?.name ?? '', ...person.roles.map((role) => ROLE_LABELS[role as keyof typeof ROLE_LABELS] ?? role)]
-      .join(' ')
-      .toLowerCase()
-      .includes(needle),
-  );
+interface RoleCount {
+  role: PersonRole;
+  active: number;
+  neverSignedIn: number;
 }
 
-/** Everyone with a sign-in, for administrators; dense so a lab's whole staff fits on a screen. */
-export function PeopleTable() {
-  const people = usePeople();
-  const [query, setQuery] = useState('');
-  const searchId = useId();
-  const shown = useMemo(() => filterPeople(people.data ?? [], query), [people.data, query]);
+export function countPeopleByRole(people: readonly AdminPersonSummary[]): RoleCount[] {
+  return personRoles.map((role) => {
+    const holders = people.filter((person) => person.active && person.roles.includes(role));
+    return { role, active: holders.length, neverSignedIn: holders.filter((person) => person.lastSignInAt === null).length };
+  });
+}
 
+const COLUMNS: DataTableColumn<RoleCount>[] = [
+  { key: 'role', header: 'Role', cell: (row) => ROLE_LABELS[row.role] },
+  { key: 'active', header: 'Active', numeric: true, widthClass: 'w-24', cell: (row) => row.active },
+  { key: 'never', header: 'Never signed in', numeric: true, widthClass: 'w-36', cell: (row) => row.neverSignedIn },
+];
+
+/** Who can sign in, counted by role, with the way to the people page. */
+export function PeopleTable() {
+  const people = usePeople({ q: '', role: '', active: '', page: 1, pageSize: 200 });
   if (people.isPending) return <LoadingNote what="people" />;
   if (people.isError) {
     return (
@@ -76,38 +43,18 @@ export function PeopleTable() {
       />
     );
   }
-
-  const activeCount = people.data.filter((person) => person.active).length;
+  const deactivated = people.data.people.filter((person) => !person.active).length;
   return (
     <div className="space-y-2">
-      <div className="flex flex-wrap items-end justify-between gap-3">
-        <p className="text-small text-ink-faint">
-          <span className="numerals text-ink">{people.data.length}</span> people,{' '}
-          <span className="numerals text-ink">{activeCount}</span> active
-        </p>
-        <div className="flex items-center gap-2">
-          <label htmlFor={searchId} className="text-small text-ink-soft">
-            Find
-          </label>
-          <input
-            id={searchId}
-            type="search"
-            value={query}
-            onChange={(event) => setQuery(event.target.value)}
-            placeholder="name, e-mail, role…"
-            className="h-8 w-56 rounded-sheet border border-rule-strong bg-sheet px-2 text-small"
-          />
-        </div>
-      </div>
-      <DataTable
-        caption="People with a Paraxia sign-in"
-        captionHidden
-        columns={COLUMNS}
-        rows={shown}
-        rowKey={(person) => person.id}
-        isRowMuted={(person) => !person.active}
-        emptyText={query ? `Nobody matches “${query}”.` : 'Nobody has a sign-in yet.'}
-      />
+      <DataTable caption="Active people by role" captionHidden columns={COLUMNS} rows={countPeopleByRole(people.data.people)} rowKey={(row) => row.role} />
+      <p className="flex flex-wrap items-baseline justify-between gap-2 text-small text-ink-faint">
+        <span>
+          <span className="numerals text-ink">{people.data.total}</span> accounts, <span className="numerals text-ink">{deactivated}</span> deactivated
+        </span>
+        <Link to="/admin/people" className="font-medium text-ink underline decoration-rule-strong underline-offset-2 hover:decoration-ink">
+          Manage people and invitations →
+        </Link>
+      </p>
     </div>
   );
 }

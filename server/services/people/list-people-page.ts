@@ -1,0 +1,61 @@
+import { and, asc, count, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
+import type { Database } from '../../db/client';
+import { organisations, people, type Role } from '../../db/schema';
+import type { AdminPersonSummary, ListPeopleQuery, PeoplePage } from '../../../shared/schemas/admin';
+
+const rolesOfPerson = sql<Role[]>`coalesce((select array_agg(pr.role::text order by pr.role) from person_roles pr where pr.person_id = people.id), '{}'::text[])`;
+
+function likePattern(text: string): string {
+  return `%${text.replace(/[\\%_]/g, (character) => `\\${character}`)}%`;
+}
+
+/** People for the admin's table: search by name or e-mail, filter by role and active, one page at a time. */
+export async function listPeoplePage(db: Database, query: ListPeopleQuery, options: { personId?: string } = {}): Promise<PeoplePage> {
+  const conditions: SQL[] = [];
+  if (options.personId) conditions.push(eq(people.id, options.personId));
+  if (query.q) {
+    const pattern = likePattern(query.q);
+    conditions.push(or(ilike(people.name, pattern), ilike(people.email, pattern))!);
+  }
+  if (query.role) conditions.push(sql`exists (select 1 from person_roles pr where pr.person_id = people.id and pr.role = ${query.role})`);
+  if (query.active !== undefined) conditions.push(eq(people.active, query.active));
+  const where = conditions.length > 0 ? and(...conditions) : undefined;
+
+  const [{ total }] = await db.select({ total: count() }).from(people).where(where);
+  const rows = await db
+    .select({
+      id: people.id,
+      email: people.email,
+      name: people.name,
+      active: people.active,
+      createdAt: people.createdAt,
+      lastSignInAt: people.lastSignInAt,
+      deactivatedAt: people.deactivatedAt,
+      roles: rolesOfPerson,
+      organisationId: organisations.id,
+      organisationName: organisations.name,
+      organisationKind: organisations.kind,
+    })
+    .from(people)
+    .leftJoin(organisations, eq(organisations.id, people.organisationId))
+    .where(where)
+    .orderBy(asc(people.name), asc(people.email))
+    .limit(query.pageSize ?? Number.MAX_SAFE_INTEGER)
+    .offset(query.pageSize ? (query.page - 1) * query.pageSize : 0);
+
+  const items: AdminPersonSummary[] = rows.map((row) => ({
+    id: row.id,
+    email: row.email,
+    name: row.name,
+    roles: row.roles,
+    organisation:
+      row.organisationId && row.organisationName && row.organisationKind
+        ? { id: row.organisationId, name: row.organisationName, kind: row.organisationKind }
+        : null,
+    active: row.active,
+    createdAt: row.createdAt.toISOString(),
+    lastSignInAt: row.lastSignInAt?.toISOString() ?? null,
+    deactivatedAt: row.deactivatedAt?.toISOString() ?? null,
+  }));
+  return { people: items, total, page: query.pageSize ? query.page : 1, pageSize: query.pageSize ?? Math.max(total, 1) };
+}

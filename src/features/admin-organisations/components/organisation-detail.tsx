@@ -1,0 +1,163 @@
+import { useState, type FormEvent } from 'react';
+import { Button } from '@/components/ui/button';
+import { DataTable, type DataTableColumn } from '@/components/ui/data-table';
+import { LoadingNote } from '@/components/ui/loading-note';
+import { ProblemNote } from '@/components/ui/problem-note';
+import { TextField } from '@/components/ui/text-field';
+import { splitServerProblems } from '@/lib/server-problems';
+import type { OrganisationContact, OrganisationDetail as Detail } from '@shared/schemas/admin';
+import { useDeleteContact } from '@/features/admin-organisations/api/delete-contact';
+import { useOrganisation } from '@/features/admin-organisations/api/get-organisation';
+import { useSaveOrganisation } from '@/features/admin-organisations/api/save-organisation';
+import { ContactForm } from '@/features/admin-organisations/components/contact-form';
+
+function RenameForm({ organisation, onClose }: { organisation: Detail; onClose: () => void }) {
+  const [name, setName] = useState(organisation.name);
+  const save = useSaveOrganisation({ onSaved: onClose });
+  const problems = splitServerProblems(save.error, ['name']);
+  function submit(event: FormEvent<HTMLFormElement>) {
+    event.preventDefault();
+    save.mutate({ organisationId: organisation.id, name: name.trim() });
+  }
+  return (
+    <form onSubmit={submit} noValidate className="flex flex-wrap items-end gap-2" aria-label="Rename the organisation">
+      <TextField label="Name" value={name} onChange={(event) => setName(event.target.value)} error={problems.byField.name ?? problems.leftOver ?? undefined} className="min-w-64 flex-1" />
+      <Button type="submit" size="md" isBusy={save.isPending}>
+        Save name
+      </Button>
+      <Button variant="quiet" onClick={onClose}>
+        Cancel
+      </Button>
+    </form>
+  );
+}
+
+function ContactRowActions({ organisationId, contact, onEdit }: { organisationId: string; contact: OrganisationContact; onEdit: () => void }) {
+  const remove = useDeleteContact();
+  const [confirming, setConfirming] = useState(false);
+  if (confirming) {
+    return (
+      <span className="flex items-center gap-1">
+        <Button size="sm" isBusy={remove.isPending} onClick={() => remove.mutate({ organisationId, contactId: contact.id })}>
+          Remove
+        </Button>
+        <Button variant="quiet" size="sm" onClick={() => setConfirming(false)}>
+          Keep
+        </Button>
+      </span>
+    );
+  }
+  return (
+    <span className="flex items-center gap-1">
+      <Button variant="secondary" size="sm" onClick={onEdit}>
+        Change
+      </Button>
+      <Button variant="quiet" size="sm" onClick={() => setConfirming(true)}>
+        Remove…
+      </Button>
+    </span>
+  );
+}
+
+/** One organisation: its name, contacts (editable) and the people who sign in for it. */
+export function OrganisationDetailPanel({ organisationId }: { organisationId: string }) {
+  const organisation = useOrganisation(organisationId);
+  const [renaming, setRenaming] = useState(false);
+  const [editing, setEditing] = useState<string | 'new' | null>(null);
+
+  if (organisation.isPending) return <LoadingNote what="the organisation" />;
+  if (organisation.isError) return <ProblemNote title="The organisation could not be loaded" message={organisation.error.message} />;
+  const detail = organisation.data;
+
+  const columns: DataTableColumn<OrganisationContact>[] = [
+    {
+      key: 'name',
+      header: 'Contact',
+      cell: (contact) => (
+        <span className="flex flex-col">
+          <span className="whitespace-nowrap font-medium text-ink">{contact.name}</span>
+          <span className="text-caption text-ink-faint">{contact.position ?? 'No position given'}</span>
+        </span>
+      ),
+    },
+    {
+      key: 'reach',
+      header: 'E-mail and phone',
+      cell: (contact) => (
+        <span className="flex flex-col">
+          <span className="numerals whitespace-nowrap text-caption">{contact.email}</span>
+          <span className="numerals text-caption text-ink-faint">{contact.phone ?? '—'}</span>
+        </span>
+      ),
+    },
+    { key: 'certificates', header: 'Certificates', widthClass: 'w-28', cell: (contact) => (contact.receivesCertificates ? 'Sent to them' : <span className="text-ink-faint">Not sent</span>) },
+    {
+      key: 'actions',
+      header: <span className="sr-only">Actions</span>,
+      widthClass: 'w-44',
+      cell: (contact) => <ContactRowActions organisationId={detail.id} contact={contact} onEdit={() => setEditing(contact.id)} />,
+    },
+  ];
+  const editedContact = editing && editing !== 'new' ? detail.contacts.find((contact) => contact.id === editing) : undefined;
+
+  return (
+    <article aria-label={detail.name} className="space-y-5 rounded-sheet border border-rule bg-sheet p-5 shadow-sheet">
+      {renaming ? (
+        <RenameForm organisation={detail} onClose={() => setRenaming(false)} />
+      ) : (
+        <div className="flex flex-wrap items-baseline justify-between gap-3">
+          <div>
+            <p className="text-caption font-semibold uppercase tracking-wider text-ink-faint">{detail.kind === 'lab' ? 'The lab' : 'Client'}</p>
+            <h2 className="text-title">{detail.name}</h2>
+            <p className="mt-1 text-small text-ink-soft">
+              <span className="numerals">{detail.workOrderCount}</span> work orders · <span className="numerals">{detail.personCount}</span> people with a sign-in
+            </p>
+          </div>
+          <Button variant="secondary" size="sm" onClick={() => setRenaming(true)}>
+            Rename
+          </Button>
+        </div>
+      )}
+
+      <section className="space-y-2" aria-label="Contacts">
+        <div className="flex items-baseline justify-between gap-2">
+          <h3 className="text-title-sm">Contacts</h3>
+          {editing === null ? (
+            <Button size="sm" variant="secondary" onClick={() => setEditing('new')}>
+              Add a contact
+            </Button>
+          ) : null}
+        </div>
+        {editing === 'new' ? <ContactForm organisationId={detail.id} onClose={() => setEditing(null)} /> : null}
+        {editedContact ? <ContactForm key={editedContact.id} organisationId={detail.id} contact={editedContact} onClose={() => setEditing(null)} /> : null}
+        <DataTable
+          caption={`Contacts at ${detail.name}`}
+          captionHidden
+          columns={columns}
+          rows={detail.contacts}
+          rowKey={(contact) => contact.id}
+          emptyText="No contacts yet. Add the people who should hear about certificates and returned work."
+        />
+      </section>
+
+      <section className="space-y-2" aria-label="People who sign in">
+        <h3 className="text-title-sm">People who sign in</h3>
+        {detail.people.length === 0 ? (
+          <p className="text-small text-ink-faint">Nobody signs in for this organisation yet; invite a contact from the People page.</p>
+        ) : (
+          <ul className="divide-y divide-rule/70 rounded-sheet border border-rule text-small">
+            {detail.people.map((person) => (
+              <li key={person.id} className={`flex justify-between gap-3 px-3 py-1.5 ${person.active ? '' : 'text-ink-faint'}`}>
+                <span>{person.name}</span>
+                <span className="numerals text-caption">
+                  {person.email}
+                  {person.active ? '' : ' · deactivated'}
+                </span>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+    </article>
+  );
+}
