@@ -9,6 +9,8 @@ export interface MeasureFolderOptions {
   concurrency?: number;
   onProgress?: (progress: AnalysisProgress) => void;
   monteCarloDraws?: number;
+  /** Record every focus operator's measure per frame, not only the chosen one's. */
+  everyFocusOperator?: boolean;
 }
 
 /** The one engine entry point on the server side: the command line and the analysis worker both call it. */
@@ -19,6 +21,7 @@ export async function measureFolder(folder: string, options: MeasureFolderOption
     source: new SharpFrameSource(folder),
     concurrency: options.concurrency ?? Math.max(2, os.availableParallelism()),
     monteCarloDraws: options.monteCarloDraws,
+    everyFocusOperator: options.everyFocusOperator,
     onProgress: options.onProgress,
   });
 }

@@ -4,6 +4,7 @@ import sharp, { type Sharp } from 'sharp';
 import type { GreyImage, PixelRect } from '../../shared/measure/types';
 import type { FrameSource, ReducedFrame } from '../../shared/measure/engine/frame-source';
 import { FrameMissingError, FrameUnreadableError } from '../../shared/measure/engine/measurement-error';
+import { findTruncation } from './find-truncation';
 
 // libvips keeps decoded images in an operation cache by default; frames are
 // read once each, so the cache only costs memory.
@@ -91,6 +92,8 @@ export class SharpFrameSource implements FrameSource {
     } catch {
       throw new FrameMissingError(file);
     }
+    const truncation = await findTruncation(full);
+    if (truncation) throw new FrameUnreadableError(file, truncation);
     try {
       const meta = await sharp(full).metadata();
       if (!meta.width || !meta.height) throw new Error('no image dimensions');

@@ -18,6 +18,8 @@ export interface AnalyseMeasurementOptions {
   /** Frames decoded at once; 2 keeps both cores of a small machine busy. */
   concurrency?: number;
   focusOperator?: FocusOperator;
+  /** Also record every other focus operator's measure per frame (`focusValues`); default false: the chosen one only, a cheaper pass. */
+  everyFocusOperator?: boolean;
   monteCarloDraws?: number;
   seed?: number;
   onProgress?: (progress: AnalysisProgress) => void;
@@ -48,6 +50,7 @@ export async function analyseMeasurement(options: AnalyseMeasurementOptions): Pr
       pattern: manifest.target.pattern,
       polarity: manifest.target.polarity,
       focusOperator,
+      everyFocusOperator: options.everyFocusOperator ?? false,
       excludedFiles,
       saturatedShareLimit: 0.01,
       concurrency: options.concurrency ?? 2,
