@@ -18,14 +18,35 @@ export function parseTrustProxy(value: string): boolean | number | string {
   return value;
 }
 
+const guardedPools = new WeakSet<object>();
+
+/**
+ * A database restart breaks pooled connections. node-postgres reports it as
+ * an 'error' event on the pool (idle connections) or on the client itself (a
+ * connection checked out between two statements of a transaction); an
+ * unheard 'error' event ends the process. Heard here, the request using the
+ * connection fails with 503 and the pool opens a new one when asked.
+ */
+function guardPoolAgainstLostConnections(deps: AppDeps): void {
+  if (guardedPools.has(deps.pool)) return;
+  guardedPools.add(deps.pool);
+  const warn = (error: Error) => deps.log.warn('A database connection was lost; the pool opens a new one when needed.', { error: String(error) });
+  deps.pool.on('error', warn);
+  deps.pool.on('connect', (client) => client.on('error', warn));
+}
+
 /** Builds the whole web app (API and built client); listening is index.ts's job. */
 export function createApp(deps: AppDeps): Express {
   const { env } = deps;
   const production = env.NODE_ENV === 'production';
   const app = express();
 
+  guardPoolAgainstLostConnections(deps);
+
   app.disable('x-powered-by');
   app.set('trust proxy', parseTrustProxy(env.TRUST_PROXY));
+  // res.json writes <, > and & as \u003c, \u003e, \u0026: stored text can never read as markup if a JSON answer is sniffed or framed.
+  app.set('json escape', true);
 
   app.use(securityHeaders({ production }));
   app.use(issueCsrfCookie({ secure: production }));

@@ -40,6 +40,8 @@ export function createDeps(env: Env, overrides: Partial<Omit<AppDeps, 'env'>> = 
         tableName: 'http_sessions',
         createTableIfMissing: false,
         pruneSessionInterval: 15 * 60,
+        // Sessions are not rolling (the cookie's 12 h runs from sign-in), so refreshing the row's expiry on every request was a write per request for nothing.
+        disableTouch: true,
         errorLog: (...args: unknown[]) => log.error('Session store error.', { detail: args.map(String).join(' ') }),
       }),
     passwords: overrides.passwords ?? createPasswordHasher({ rounds: env.PASSWORD_HASH_ROUNDS }),

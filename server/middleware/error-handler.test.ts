@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { HttpError } from '../http-error';
 import { HttpStatus } from '../http-status';
 import type { Logger } from '../services/logger';
-import { apiNotFound, errorHandler, INTERNAL_ERROR_MESSAGE } from './error-handler';
+import { apiNotFound, DATABASE_UNAVAILABLE_MESSAGE, errorHandler, INTERNAL_ERROR_MESSAGE, isDatabaseUnavailable } from './error-handler';
 
 function recordingLogger() {
   const errors: { message: string; details?: Record<string, unknown> }[] = [];
@@ -64,5 +64,34 @@ describe('errorHandler', () => {
     const response = await request(appThrowing(new multer.MulterError('LIMIT_UNEXPECTED_FILE', 'photo'), log)).get('/api/boom');
     expect(response.status).toBe(400);
     expect(response.body.error.message).toBe('The upload has a file in an unexpected field "photo".');
+  });
+
+  it('answers a database out of reach with 503, a sentence and Retry-After, whether the driver error comes bare or wrapped', async () => {
+    const { log, errors } = recordingLogger();
+    const refused = Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:5432'), { code: 'ECONNREFUSED' });
+    const wrapped = new Error('Failed query: select 1', { cause: refused });
+    for (const error of [refused, wrapped, new Error('Connection terminated unexpectedly')]) {
+      const response = await request(appThrowing(error, log)).get('/api/boom');
+      expect(response.status).toBe(503);
+      expect(response.headers['retry-after']).toBe('30');
+      expect(response.body).toEqual({ error: { message: DATABASE_UNAVAILABLE_MESSAGE } });
+    }
+    expect(errors).toHaveLength(0);
+  });
+
+  it('treats the server shutting down (SQLSTATE 57P01) as out of reach, and a constraint violation (23505) as a bug', () => {
+    // SQLSTATE codes from the PostgreSQL manual, Appendix A.
+    expect(isDatabaseUnavailable(Object.assign(new Error('terminating connection due to administrator command'), { code: '57P01' }))).toBe(true);
+    expect(isDatabaseUnavailable(Object.assign(new Error('duplicate key value'), { code: '23505' }))).toBe(false);
+  });
+
+  it('maps a malformed multipart form (busboy) to 400 with a sentence instead of a 500', async () => {
+    const { log, errors } = recordingLogger();
+    const response = await request(appThrowing(new Error('Malformed part header'), log)).get('/api/boom');
+    expect(response.status).toBe(400);
+    expect(response.body.error.message).toBe(
+      'The upload could not be read as a multipart form (malformed part header); check the file name for control characters and send it again.',
+    );
+    expect(errors).toHaveLength(0);
   });
 });

@@ -31,14 +31,53 @@ const multerMessages: Record<string, (field?: string) => string> = {
   MISSING_FIELD_NAME: () => 'A file in the upload has no field name.',
 };
 
+/** The errors busboy (multer's parser) raises for a malformed form, by message; they carry no code. */
+const MALFORMED_FORM_MESSAGES = new Set([
+  'Malformed content type',
+  'Malformed part header',
+  'Malformed urlencoded form',
+  'Missing Content-Type',
+  'Multipart: Boundary not found',
+  'Unexpected end of file',
+  'Unexpected end of form',
+]);
+
+/** PostgreSQL SQLSTATE class 08 (connection exception) and 57P01–57P03 (server shutting down or starting), PostgreSQL manual, Appendix A. */
+const DATABASE_UNAVAILABLE_CODES = /^(08\d{3}|57P0[123]|ECONNREFUSED|ECONNRESET|EPIPE|ETIMEDOUT|EHOSTUNREACH)$/;
+/** node-postgres reports a lost or refused connection by message only. */
+const DATABASE_UNAVAILABLE_MESSAGES = /^(Connection terminated|timeout exceeded when trying to connect|Client has encountered a connection error|Connection terminated unexpectedly)/;
+
+export const DATABASE_UNAVAILABLE_MESSAGE = 'The database cannot be reached just now, so nothing was read or saved; please try again in a minute.';
+
+/** True when the error, or one it wraps (Drizzle wraps driver errors as `cause`), says the database is out of reach. */
+export function isDatabaseUnavailable(error: unknown): boolean {
+  for (let current = error, depth = 0; current instanceof Error && depth < 5; current = current.cause, depth++) {
+    const code = (current as { code?: unknown }).code;
+    if (typeof code === 'string' && DATABASE_UNAVAILABLE_CODES.test(code)) return true;
+    if (DATABASE_UNAVAILABLE_MESSAGES.test(current.message)) return true;
+  }
+  return false;
+}
+
 /** Maps an error to the one API error shape; returns null for a bug. */
 export function describeClientError(error: unknown): { status: HttpStatusCode; body: ApiErrorBody } | null {
   if (error instanceof HttpError) return { status: error.status, body: error.toBody() };
+
+  if (isDatabaseUnavailable(error)) {
+    return { status: HttpStatus.SERVICE_UNAVAILABLE, body: { error: { message: DATABASE_UNAVAILABLE_MESSAGE } } };
+  }
 
   if (error instanceof multer.MulterError) {
     const message = (multerMessages[error.code] ?? (() => 'The upload could not be read.'))(error.field);
     const status = error.code === 'LIMIT_FILE_SIZE' || error.code === 'LIMIT_FILE_COUNT' ? HttpStatus.PAYLOAD_TOO_LARGE : HttpStatus.BAD_REQUEST;
     return { status, body: { error: error.field ? { message, fields: { [error.field]: message } } : { message } } };
+  }
+
+  if (error instanceof Error && error.constructor === Error && MALFORMED_FORM_MESSAGES.has(error.message)) {
+    return {
+      status: HttpStatus.BAD_REQUEST,
+      body: { error: { message: `The upload could not be read as a multipart form (${error.message.toLowerCase()}); check the file name for control characters and send it again.` } },
+    };
   }
 
   if (isBodyParserError(error)) {
@@ -80,6 +119,10 @@ export function errorHandler(log: Logger): ErrorRequestHandler {
     if (res.headersSent) return next(error);
     const described = describeClientError(error);
     if (described) {
+      if (described.status === HttpStatus.SERVICE_UNAVAILABLE) {
+        log.warn('A service the request needs is out of reach.', { method: req.method, path: req.originalUrl, error: String(error) });
+        res.setHeader('Retry-After', '30');
+      }
       res.status(described.status).json(described.body);
       return;
     }

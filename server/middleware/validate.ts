@@ -38,7 +38,24 @@ const sentenceForIssue: z.core.$ZodErrorMap = (issue) => {
   }
 };
 
+/** Paths (a.b.0) of string values holding U+0000, which PostgreSQL text cannot store. */
+function pathsWithNul(value: unknown, path: string[] = [], found: string[] = []): string[] {
+  if (typeof value === 'string') {
+    if (value.includes('\u0000')) found.push(path.join('.') || '_');
+  } else if (Array.isArray(value)) {
+    value.forEach((item, index) => pathsWithNul(item, [...path, String(index)], found));
+  } else if (value !== null && typeof value === 'object') {
+    for (const [key, item] of Object.entries(value)) pathsWithNul(item, [...path, key], found);
+  }
+  return found;
+}
+
 export function parseOrThrow<T extends z.ZodType>(schema: T, input: unknown, what: 'body' | 'query' | 'params'): z.output<T> {
+  const withNul = pathsWithNul(input);
+  if (withNul.length > 0) {
+    const fields = Object.fromEntries(withNul.map((key) => [key, `${fieldLabel(key === '_' ? [] : key.split('.'))} must not contain a NUL character (U+0000).`]));
+    throw new HttpError(HttpStatus.BAD_REQUEST, `Some fields need attention: ${withNul.join(', ')}.`, fields);
+  }
   const result = schema.safeParse(input, { error: sentenceForIssue });
   if (result.success) return result.data;
   const fields: Record<string, string> = {};
