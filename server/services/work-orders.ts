@@ -86,6 +86,16 @@ const SORT_COLUMNS: Record<WorkOrderSortField, SQL> = {
 };
 
 /** The whitelisted sort, then number and id so that pages never overlap; orders without a due date come last either way. */
+async function countsOfWorkOrders(db: Database, workOrderIds: string[]): Promise<Map<string, { lensCount: number; measurementCount: number }>> {
+  if (workOrderIds.length === 0) return new Map();
+  const result = await db.execute<{ work_order_id: string; lens_count: number; measurement_count: number }>(sql`
+    select l.work_order_id, count(distinct l.id)::int as lens_count, count(m.id)::int as measurement_count
+    from lenses l left join measurements m on m.lens_id = l.id
+    where l.work_order_id in ${workOrderIds}
+    group by l.work_order_id`);
+  return new Map(result.rows.map((row) => [row.work_order_id, { lensCount: row.lens_count, measurementCount: row.measurement_count }]));
+}
+
 function orderByFor(sort: WorkOrderSortField, order: 'asc' | 'desc'): SQL[] {
   const direction = order === 'asc' ? asc : desc;
   const primary = sort === 'dueDate' ? sql`${SORT_COLUMNS.dueDate} ${sql.raw(order)} nulls last` : direction(SORT_COLUMNS[sort]);
@@ -121,15 +131,19 @@ export async function listWorkOrders(db: Database, query: ListWorkOrdersQuery, v
     .from(workOrders)
     .innerJoin(organisations, eq(organisations.id, workOrders.organisationId))
     .where(where);
+  // The page first, then the counts for its rows only: counted in the select list, PostgreSQL would count every matching row before sorting.
+  const { lensCount: _lensCount, measurementCount: _measurementCount, ...pageColumns } = listColumns;
   const rows = await db
-    .select(listColumns)
+    .select(pageColumns)
     .from(workOrders)
     .innerJoin(organisations, eq(organisations.id, workOrders.organisationId))
     .where(where)
     .orderBy(...orderByFor(sort, order))
     .limit(query.pageSize)
     .offset((query.page - 1) * query.pageSize);
-  return { items: rows.map(toListItem), total: Number(total), page: query.page, pageSize: query.pageSize };
+  const counts = await countsOfWorkOrders(db, rows.map((row) => row.id));
+  const items = rows.map((row) => toListItem({ ...row, ...(counts.get(row.id) ?? { lensCount: 0, measurementCount: 0 }) }));
+  return { items, total: Number(total), page: query.page, pageSize: query.pageSize };
 }
 
 /** The work order as `viewer` may see it; another organisation's order is "not found", so ids cannot be probed. */

@@ -356,13 +356,13 @@ describe('frame images, exclusion and deletion', () => {
     expect(unknown.body.error.message).toBe('There is no frame with id 00000000-0000-4000-8000-000000000000.');
   });
 
-  it('answers 404 with a sentence for an original purged by retention, while the thumbnail remains', async () => {
+  it('answers 410 with a sentence for an original purged by retention, while the thumbnail remains', async () => {
     const { sweepId } = await newSweep();
     const { frame } = (await upload(sweepId, await readUploadFixture('dot-pair-8bit.png'), 'old.png')).body;
     await testApp.deps.db.update(frames).set({ purgedAt: new Date() }).where(eq(frames.id, frame.id));
     const original = await reviewer.agent.get(frame.originalUrl);
-    expect(original.status).toBe(404);
-    expect(original.body.error.message).toBe('The original of frame old.png was removed by retention; its thumbnail and preview remain.');
+    expect(original.status).toBe(410);
+    expect(original.body.error.message).toMatch(/^The original of frame old\.png was removed by retention on \d{4}-\d{2}-\d{2}; its thumbnail, preview and the analysis results remain\.$/);
     expect((await reviewer.agent.get(frame.thumbnailUrl)).status).toBe(200);
   });
 
