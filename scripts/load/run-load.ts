@@ -253,7 +253,7 @@ async function main(): Promise<number> {
     process.stdout.write(await describeDatabaseWork(deps.pool, countersBefore, quiet.requests));
 
     // PARAXIA_LOAD_WORKER_NICE=<0..19> lowers the workers' CPU priority (setpriority(2)), to see what that does for the web.
-    const workerNice = Number(process.env.PARAXIA_LOAD_WORKER_NICE ?? 0);
+    const workerNice = Number(process.env.PARAXIA_LOAD_WORKER_NICE ?? 10); // as npm start runs them
     for (let i = 0; i < WORKERS; i++) {
       const worker = startNodeProcess('server/workers/analysis-worker.ts', env, `analysis worker ${i + 1}`);
       if (workerNice > 0 && worker.pid) setPriority(worker.pid, workerNice);

@@ -6,6 +6,7 @@
  */
 import { existsSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { mkdir } from 'node:fs/promises';
+import { setPriority } from 'node:os';
 import path from 'node:path';
 import { createDatabase } from '../../server/db/client';
 import { createLogger } from '../../server/services/logger';
@@ -104,6 +105,7 @@ async function main(): Promise<void> {
   const objectStorePort = portFromEnv('PARAXIA_S3_PORT', 9329);
   const mailPort = portFromEnv('PARAXIA_SMTP_PORT', 2529);
   const workerCount = countFromEnv('PARAXIA_ANALYSIS_WORKERS', 1);
+  const workerNice = countFromEnv('PARAXIA_ANALYSIS_WORKER_NICE', 10);
 
   await takeRunLock(folders.root);
   await assertPortFree(webPort, 'the web server', 'PORT');
@@ -174,6 +176,8 @@ async function main(): Promise<void> {
   if (existsSync(path.join(projectRoot, ANALYSIS_WORKER_ENTRY))) {
     for (let i = 1; i <= workerCount; i += 1) {
       const worker = startNodeProcess({ name: `analysis worker ${i}`, entry: ANALYSIS_WORKER_ENTRY, env: childEnv });
+      // Analysis is batch work; the web answers people. A lower CPU priority keeps pages quick while sweeps are analysed.
+      setWorkerPriority(worker.pid, workerNice);
       workers.push(worker);
       void worker.exited.then((code) => {
         if (!stopping) log.warn(`${worker.name} stopped (exit ${code}); the web server keeps running.`);
@@ -196,6 +200,14 @@ async function main(): Promise<void> {
     '',
   ];
   process.stdout.write(lines.join('\n'));
+}
+
+function setWorkerPriority(pid: number, nice: number): void {
+  try {
+    setPriority(pid, Math.min(19, nice));
+  } catch (error) {
+    log.warn(`Could not lower the analysis worker's priority: ${error instanceof Error ? error.message : String(error)}`);
+  }
 }
 
 /** Once the workers have analysed the demo sweeps: submissions, a return, approvals and certificates. */
