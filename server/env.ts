@@ -1,5 +1,7 @@
 import path from 'node:path';
 import { z } from 'zod';
+import { FRAME_MAX_BYTES, FRAME_MAX_PIXELS } from '../shared/schemas/frames';
+import { RETENTION_DAYS_MAX, RETENTION_DAYS_MIN } from '../shared/schemas/storage';
 import { projectRoot } from './project-root';
 
 const booleanText = z.stringbool({
@@ -31,6 +33,50 @@ function urlWithProtocols(protocols: string[]) {
     },
     { error: `must be a URL starting with ${list}.` },
   );
+}
+
+export interface NumericSettingRange {
+  min: number;
+  max: number;
+  integer: boolean;
+}
+
+/**
+ * The numeric PARAXIA_* settings: range and default. The services check
+ * options given in code (tests, scripts) against the same ranges.
+ */
+export const numericSettings = {
+  PARAXIA_FRAME_MAX_BYTES: { min: 1, max: 1024 * 1024 * 1024, integer: true, default: FRAME_MAX_BYTES },
+  PARAXIA_FRAME_MAX_PIXELS: { min: 1, max: 500_000_000, integer: true, default: FRAME_MAX_PIXELS },
+  PARAXIA_ANALYSIS_EXPIRE_SECONDS: { min: 1, max: 23 * 3600, integer: true, default: 15 * 60 },
+  PARAXIA_ANALYSIS_RETRY_LIMIT: { min: 0, max: 20, integer: true, default: 2 },
+  PARAXIA_ANALYSIS_RETRY_DELAY_SECONDS: { min: 0, max: 3600, integer: true, default: 15 },
+  PARAXIA_ANALYSIS_MAINTENANCE_SECONDS: { min: 1, max: 3600, integer: true, default: 60 },
+  // pg-boss polls no faster than every 0.5 s (its own configuration check).
+  PARAXIA_ANALYSIS_POLLING_SECONDS: { min: 0.5, max: 600, integer: false, default: 2 },
+  PARAXIA_ANALYSIS_ORPHAN_CHECK_SECONDS: { min: 0, max: 3600, integer: true, default: 20 },
+  PARAXIA_RETENTION_DAYS: { min: RETENTION_DAYS_MIN, max: RETENTION_DAYS_MAX, integer: true, default: 365 },
+  PARAXIA_ORPHAN_MIN_AGE_MINUTES: { min: 0, max: 7 * 24 * 60, integer: true, default: 60 },
+  PARAXIA_MAIL_POLLING_MS: { min: 100, max: 3_600_000, integer: true, default: 5_000 },
+} as const satisfies Record<string, NumericSettingRange & { default: number }>;
+
+/** Frames the engine decodes at once; unset leaves the engine's own choice. */
+export const ENGINE_CONCURRENCY_RANGE: NumericSettingRange = { min: 1, max: 64, integer: true };
+
+export const analysisQueueNameRule = {
+  pattern: /^[a-z0-9][a-z0-9-]{0,60}$/,
+  sentence: 'must be 1 to 61 lower-case letters, digits or hyphens, starting with a letter or digit',
+  default: 'analyse-measurement',
+} as const;
+
+function numberInRange(range: NumericSettingRange) {
+  const error = `must be ${range.integer ? 'a whole number' : 'a number'} from ${range.min} to ${range.max}.`;
+  const bounded = z.coerce.number({ error }).min(range.min, { error }).max(range.max, { error });
+  return range.integer ? bounded.int({ error }) : bounded;
+}
+
+function numericSetting(name: keyof typeof numericSettings) {
+  return numberInRange(numericSettings[name]).default(numericSettings[name].default);
 }
 
 const SECRET_VARIABLES = new Set(['SESSION_SECRET', 'SMTP_PASS', 'S3_SECRET_ACCESS_KEY']);
@@ -82,6 +128,26 @@ const envSchema = z
     SMTP_PASS: z.string().optional(),
     MAIL_FROM: z.string().min(3, { error: 'must be a sender such as "Paraxia <no-reply@lab.example>".' }).default('Paraxia <no-reply@paraxia.example>'),
     MAIL_STORE_DIR: z.string().default(path.join(projectRoot, '.data', 'mail')),
+    PARAXIA_MAIL_POLLING_MS: numericSetting('PARAXIA_MAIL_POLLING_MS'),
+
+    PARAXIA_FRAME_MAX_BYTES: numericSetting('PARAXIA_FRAME_MAX_BYTES'),
+    PARAXIA_FRAME_MAX_PIXELS: numericSetting('PARAXIA_FRAME_MAX_PIXELS'),
+    PARAXIA_RETENTION_DAYS: numericSetting('PARAXIA_RETENTION_DAYS'),
+    PARAXIA_ORPHAN_MIN_AGE_MINUTES: numericSetting('PARAXIA_ORPHAN_MIN_AGE_MINUTES'),
+
+    PARAXIA_ANALYSIS_QUEUE_NAME: z
+      .string()
+      .regex(analysisQueueNameRule.pattern, { error: `${analysisQueueNameRule.sentence}.` })
+      .default(analysisQueueNameRule.default),
+    PARAXIA_ANALYSIS_EXPIRE_SECONDS: numericSetting('PARAXIA_ANALYSIS_EXPIRE_SECONDS'),
+    PARAXIA_ANALYSIS_RETRY_LIMIT: numericSetting('PARAXIA_ANALYSIS_RETRY_LIMIT'),
+    PARAXIA_ANALYSIS_RETRY_DELAY_SECONDS: numericSetting('PARAXIA_ANALYSIS_RETRY_DELAY_SECONDS'),
+    PARAXIA_ANALYSIS_MAINTENANCE_SECONDS: numericSetting('PARAXIA_ANALYSIS_MAINTENANCE_SECONDS'),
+    PARAXIA_ANALYSIS_POLLING_SECONDS: numericSetting('PARAXIA_ANALYSIS_POLLING_SECONDS'),
+    PARAXIA_ANALYSIS_ORPHAN_CHECK_SECONDS: numericSetting('PARAXIA_ANALYSIS_ORPHAN_CHECK_SECONDS'),
+    PARAXIA_ANALYSIS_ENGINE_CONCURRENCY: numberInRange(ENGINE_CONCURRENCY_RANGE).optional(),
+    /** Each analysis job makes its own folder inside this one; default: the system's temporary folder. */
+    PARAXIA_ANALYSIS_SCRATCH_DIR: z.string().optional(),
   })
   .superRefine((env, ctx) => {
     if (env.NODE_ENV === 'production') {
@@ -117,10 +183,10 @@ export class InvalidEnvironmentError extends Error {
   }
 }
 
-/** Reads Paraxia's settings from environment variables; empty strings count
- * as unset so that `FOO= npm start` falls back to the default. */
+/** Reads Paraxia's settings from environment variables; empty (or blank)
+ * strings count as unset so that `FOO= npm start` falls back to the default. */
 export function parseEnv(source: Record<string, string | undefined> = process.env): Env {
-  const present = Object.fromEntries(Object.entries(source).filter(([, value]) => value !== undefined && value !== ''));
+  const present = Object.fromEntries(Object.entries(source).filter(([, value]) => value !== undefined && value.trim() !== ''));
   const result = envSchema.safeParse(present);
   if (result.success) return result.data;
   const problems = result.error.issues.map((issue) => {

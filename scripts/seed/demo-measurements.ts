@@ -15,6 +15,8 @@ import type { MeasurementMethod } from '../../shared/measure/types';
 import { createEquipmentBody, type CreateEquipmentInput } from '../../shared/schemas/equipment';
 import type { Database } from '../../server/db/client';
 import { analysisRuns, equipment, frames, measurements, sweeps } from '../../server/db/schema';
+import { parseEnv } from '../../server/env';
+import type { AnalysisQueueEnv } from '../../server/services/analysis-queue';
 import { requestAnalysisRun } from '../../server/services/analysis-runs';
 import type { Logger } from '../../server/services/logger';
 import { createMeasurement } from '../../server/services/measurements';
@@ -237,6 +239,8 @@ export interface DemoMeasurementDeps {
   pool: pg.Pool;
   storage: ObjectStorage;
   log: Logger;
+  /** The analysis queue settings; default: this process's environment. */
+  env?: AnalysisQueueEnv;
 }
 
 export interface SeedDemoMeasurementsOptions {
@@ -407,7 +411,7 @@ export async function seedDemoMeasurements(
     }
     const runCount = await deps.db.$count(analysisRuns, eq(analysisRuns.measurementId, measurement.id));
     if (runCount === 0) {
-      await requestAnalysisRun(deps, { measurementId: measurement.id, requestedById: options.technicianId });
+      await requestAnalysisRun({ ...deps, env: deps.env ?? parseEnv() }, { measurementId: measurement.id, requestedById: options.technicianId });
       analysesQueued += 1;
     }
     options.report(`${label}: frames stored, analysis queued`);

@@ -5,9 +5,10 @@
  */
 import PgBoss from 'pg-boss';
 import type pg from 'pg';
+import { analysisQueueNameRule, numericSettings, type Env, type NumericSettingRange } from '../env';
 import type { Logger } from './logger';
 
-export const ANALYSIS_QUEUE_NAME = 'analyse-measurement';
+export const ANALYSIS_QUEUE_NAME = analysisQueueNameRule.default;
 
 /** Jobs that used up their retries (thrown or expired) land here, so a worker can mark their run failed. */
 export function deadLetterQueueName(queueName: string): string {
@@ -39,26 +40,23 @@ export interface AnalysisQueueSettings {
 
 export const defaultAnalysisQueueSettings: AnalysisQueueSettings = {
   queueName: ANALYSIS_QUEUE_NAME,
-  expireInSeconds: 15 * 60,
-  retryLimit: 2,
-  retryDelaySeconds: 15,
-  maintenanceIntervalSeconds: 60,
-  pollingIntervalSeconds: 2,
-  orphanCheckSeconds: 20,
+  expireInSeconds: numericSettings.PARAXIA_ANALYSIS_EXPIRE_SECONDS.default,
+  retryLimit: numericSettings.PARAXIA_ANALYSIS_RETRY_LIMIT.default,
+  retryDelaySeconds: numericSettings.PARAXIA_ANALYSIS_RETRY_DELAY_SECONDS.default,
+  maintenanceIntervalSeconds: numericSettings.PARAXIA_ANALYSIS_MAINTENANCE_SECONDS.default,
+  pollingIntervalSeconds: numericSettings.PARAXIA_ANALYSIS_POLLING_SECONDS.default,
+  orphanCheckSeconds: numericSettings.PARAXIA_ANALYSIS_ORPHAN_CHECK_SECONDS.default,
 };
 
 type NumericSetting = Exclude<keyof AnalysisQueueSettings, 'queueName'>;
 
-const QUEUE_NAME_PATTERN = /^[a-z0-9][a-z0-9-]{0,60}$/;
-const QUEUE_NAME_RULE = 'must be 1 to 61 lower-case letters, digits or hyphens, starting with a letter or digit';
-
-const settingVariables: Record<NumericSetting, { variable: string; min: number; max: number; integer: boolean }> = {
-  expireInSeconds: { variable: 'PARAXIA_ANALYSIS_EXPIRE_SECONDS', min: 1, max: 23 * 3600, integer: true },
-  retryLimit: { variable: 'PARAXIA_ANALYSIS_RETRY_LIMIT', min: 0, max: 20, integer: true },
-  retryDelaySeconds: { variable: 'PARAXIA_ANALYSIS_RETRY_DELAY_SECONDS', min: 0, max: 3600, integer: true },
-  maintenanceIntervalSeconds: { variable: 'PARAXIA_ANALYSIS_MAINTENANCE_SECONDS', min: 1, max: 3600, integer: true },
-  pollingIntervalSeconds: { variable: 'PARAXIA_ANALYSIS_POLLING_SECONDS', min: 0.5, max: 600, integer: false },
-  orphanCheckSeconds: { variable: 'PARAXIA_ANALYSIS_ORPHAN_CHECK_SECONDS', min: 0, max: 3600, integer: true },
+const settingRanges: Record<NumericSetting, NumericSettingRange> = {
+  expireInSeconds: numericSettings.PARAXIA_ANALYSIS_EXPIRE_SECONDS,
+  retryLimit: numericSettings.PARAXIA_ANALYSIS_RETRY_LIMIT,
+  retryDelaySeconds: numericSettings.PARAXIA_ANALYSIS_RETRY_DELAY_SECONDS,
+  maintenanceIntervalSeconds: numericSettings.PARAXIA_ANALYSIS_MAINTENANCE_SECONDS,
+  pollingIntervalSeconds: numericSettings.PARAXIA_ANALYSIS_POLLING_SECONDS,
+  orphanCheckSeconds: numericSettings.PARAXIA_ANALYSIS_ORPHAN_CHECK_SECONDS,
 };
 
 /**
@@ -68,15 +66,15 @@ const settingVariables: Record<NumericSetting, { variable: string; min: number; 
 export function checkAnalysisQueueSettings(settings: Partial<AnalysisQueueSettings> = {}): AnalysisQueueSettings {
   const checked = { ...defaultAnalysisQueueSettings };
   if (settings.queueName !== undefined) {
-    if (typeof settings.queueName !== 'string' || !QUEUE_NAME_PATTERN.test(settings.queueName)) {
-      throw new Error(`queueName ${QUEUE_NAME_RULE}, got ${JSON.stringify(settings.queueName)}.`);
+    if (typeof settings.queueName !== 'string' || !analysisQueueNameRule.pattern.test(settings.queueName)) {
+      throw new Error(`queueName ${analysisQueueNameRule.sentence}, got ${JSON.stringify(settings.queueName)}.`);
     }
     checked.queueName = settings.queueName;
   }
-  for (const key of Object.keys(settingVariables) as NumericSetting[]) {
+  for (const key of Object.keys(settingRanges) as NumericSetting[]) {
     const value = settings[key];
     if (value === undefined) continue;
-    const { min, max, integer } = settingVariables[key];
+    const { min, max, integer } = settingRanges[key];
     if (typeof value !== 'number' || !Number.isFinite(value) || (integer && !Number.isInteger(value)) || value < min || value > max) {
       throw new Error(`${key} must be ${integer ? 'a whole number' : 'a number'} from ${min} to ${max}, got ${String(value)}.`);
     }
@@ -85,27 +83,28 @@ export function checkAnalysisQueueSettings(settings: Partial<AnalysisQueueSettin
   return checked;
 }
 
-/** Reads the queue settings from PARAXIA_ANALYSIS_* variables; unset or empty means the default. */
-export function readAnalysisQueueSettings(source: Record<string, string | undefined> = process.env): AnalysisQueueSettings {
-  const given: Partial<AnalysisQueueSettings> = {};
-  const queueName = source.PARAXIA_ANALYSIS_QUEUE_NAME;
-  if (queueName !== undefined && queueName.trim() !== '') {
-    if (!QUEUE_NAME_PATTERN.test(queueName)) throw new Error(`PARAXIA_ANALYSIS_QUEUE_NAME ${QUEUE_NAME_RULE} (got ${JSON.stringify(queueName)}).`);
-    given.queueName = queueName;
-  }
-  for (const [key, { variable, min, max, integer }] of Object.entries(settingVariables) as [
-    NumericSetting,
-    (typeof settingVariables)[NumericSetting],
-  ][]) {
-    const raw = source[variable];
-    if (raw === undefined || raw.trim() === '') continue;
-    const value = Number(raw);
-    if (!Number.isFinite(value) || (integer && !Number.isInteger(value)) || value < min || value > max) {
-      throw new Error(`${variable} must be ${integer ? 'a whole number' : 'a number'} from ${min} to ${max} (got ${JSON.stringify(raw)}).`);
-    }
-    given[key] = value;
-  }
-  return checkAnalysisQueueSettings(given);
+export type AnalysisQueueEnv = Pick<
+  Env,
+  | 'PARAXIA_ANALYSIS_QUEUE_NAME'
+  | 'PARAXIA_ANALYSIS_EXPIRE_SECONDS'
+  | 'PARAXIA_ANALYSIS_RETRY_LIMIT'
+  | 'PARAXIA_ANALYSIS_RETRY_DELAY_SECONDS'
+  | 'PARAXIA_ANALYSIS_MAINTENANCE_SECONDS'
+  | 'PARAXIA_ANALYSIS_POLLING_SECONDS'
+  | 'PARAXIA_ANALYSIS_ORPHAN_CHECK_SECONDS'
+>;
+
+/** The queue settings the PARAXIA_ANALYSIS_* variables give (checked by server/env.ts). */
+export function analysisQueueSettingsFromEnv(env: AnalysisQueueEnv): AnalysisQueueSettings {
+  return {
+    queueName: env.PARAXIA_ANALYSIS_QUEUE_NAME,
+    expireInSeconds: env.PARAXIA_ANALYSIS_EXPIRE_SECONDS,
+    retryLimit: env.PARAXIA_ANALYSIS_RETRY_LIMIT,
+    retryDelaySeconds: env.PARAXIA_ANALYSIS_RETRY_DELAY_SECONDS,
+    maintenanceIntervalSeconds: env.PARAXIA_ANALYSIS_MAINTENANCE_SECONDS,
+    pollingIntervalSeconds: env.PARAXIA_ANALYSIS_POLLING_SECONDS,
+    orphanCheckSeconds: env.PARAXIA_ANALYSIS_ORPHAN_CHECK_SECONDS,
+  };
 }
 
 export interface AnalysisQueue {
@@ -181,12 +180,12 @@ const producers = new WeakMap<pg.Pool, Promise<AnalysisQueue>>();
 /**
  * The web process's sender, one per database pool and sharing it (so it adds
  * no connections and closes with the pool). Settings come from the
- * PARAXIA_ANALYSIS_* variables.
+ * PARAXIA_ANALYSIS_* variables in `deps.env`.
  */
-export function analysisQueueFor(deps: { pool: pg.Pool; log: Logger }): Promise<AnalysisQueue> {
+export function analysisQueueFor(deps: { pool: pg.Pool; log: Logger; env: AnalysisQueueEnv }): Promise<AnalysisQueue> {
   let producer = producers.get(deps.pool);
   if (!producer) {
-    producer = startAnalysisQueue({ pool: deps.pool, supervise: false, settings: readAnalysisQueueSettings(), log: deps.log });
+    producer = startAnalysisQueue({ pool: deps.pool, supervise: false, settings: analysisQueueSettingsFromEnv(deps.env), log: deps.log });
     producers.set(deps.pool, producer);
     // A failed start is not cached: the next request tries again.
     producer.catch(() => producers.delete(deps.pool));

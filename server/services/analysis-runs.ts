@@ -21,7 +21,7 @@ import { analysisRuns, auditEvents, measurements, people, type MeasurementStatus
 import { HttpError } from '../http-error';
 import { HttpStatus } from '../http-status';
 import { invariant } from '../invariant';
-import { analysisQueueFor, type AnalysisQueue } from './analysis-queue';
+import { analysisQueueFor, type AnalysisQueue, type AnalysisQueueEnv } from './analysis-queue';
 import { buildEngineManifest, type EngineFrameFile, type EngineManifest } from './engine-manifest';
 import type { Logger } from './logger';
 
@@ -170,6 +170,8 @@ export interface RequestAnalysisRunDeps {
   db: Database;
   pool: pg.Pool;
   log: Logger;
+  /** The queue settings of the sender analysisQueueFor makes. */
+  env: AnalysisQueueEnv;
   /** Defaults to this pool's shared sender (analysisQueueFor). */
   queue?: () => Promise<AnalysisQueue>;
 }

@@ -22,6 +22,7 @@ import {
 } from '../../shared/schemas/frames';
 import { canChangeFrames } from '../../shared/schemas/measurements';
 import type { Database } from '../db/client';
+import { numericSettings, type Env, type NumericSettingRange } from '../env';
 import { auditEvents, frames, lenses, measurements, sweeps, workOrders } from '../db/schema';
 import { HttpError } from '../http-error';
 import { HttpStatus } from '../http-status';
@@ -42,9 +43,9 @@ export interface FrameUploadSettings {
 
 export const defaultFrameUploadSettings: FrameUploadSettings = { maxBytes: FRAME_MAX_BYTES, maxPixels: FRAME_MAX_PIXELS };
 
-const settingLimits: Record<keyof FrameUploadSettings, { variable: string; min: number; max: number }> = {
-  maxBytes: { variable: 'PARAXIA_FRAME_MAX_BYTES', min: 1, max: 1024 * 1024 * 1024 },
-  maxPixels: { variable: 'PARAXIA_FRAME_MAX_PIXELS', min: 1, max: 500_000_000 },
+const settingLimits: Record<keyof FrameUploadSettings, NumericSettingRange> = {
+  maxBytes: numericSettings.PARAXIA_FRAME_MAX_BYTES,
+  maxPixels: numericSettings.PARAXIA_FRAME_MAX_PIXELS,
 };
 
 /** Fills the defaults and checks the upload settings, throwing a sentence that names the bad option. */
@@ -62,19 +63,9 @@ export function checkFrameUploadOptions(options: Partial<FrameUploadSettings> = 
   return checked;
 }
 
-/** Reads PARAXIA_FRAME_MAX_BYTES and PARAXIA_FRAME_MAX_PIXELS; unset or empty means the default (80 MiB, 60 MP). */
-export function readFrameUploadSettings(source: Record<string, string | undefined> = process.env): FrameUploadSettings {
-  const given: Partial<FrameUploadSettings> = {};
-  for (const [key, { variable, min, max }] of Object.entries(settingLimits) as [keyof FrameUploadSettings, { variable: string; min: number; max: number }][]) {
-    const raw = source[variable];
-    if (raw === undefined || raw.trim() === '') continue;
-    const value = Number(raw);
-    if (!Number.isInteger(value) || value < min || value > max) {
-      throw new Error(`${variable} must be a whole number from ${min} to ${max} (got ${JSON.stringify(raw)}).`);
-    }
-    given[key] = value;
-  }
-  return checkFrameUploadOptions(given);
+/** The limits PARAXIA_FRAME_MAX_BYTES and PARAXIA_FRAME_MAX_PIXELS set (checked by server/env.ts; default 80 MiB, 60 MP). */
+export function frameUploadSettingsFromEnv(env: Pick<Env, 'PARAXIA_FRAME_MAX_BYTES' | 'PARAXIA_FRAME_MAX_PIXELS'>): FrameUploadSettings {
+  return { maxBytes: env.PARAXIA_FRAME_MAX_BYTES, maxPixels: env.PARAXIA_FRAME_MAX_PIXELS };
 }
 
 /* ------------------------------ object keys ------------------------------ */

@@ -9,8 +9,8 @@ import { pathToFileURL } from 'node:url';
 import { createDatabase } from '../db/client';
 import { loadEnvOrExit, type Env } from '../env';
 import {
+  analysisQueueSettingsFromEnv,
   deadLetterQueueName,
-  readAnalysisQueueSettings,
   startAnalysisQueue,
   type AnalysisJobData,
   type AnalysisQueueSettings,
@@ -24,11 +24,12 @@ import { defaultScratchDir, runAnalysisJob } from './run-analysis-job';
 
 export interface AnalysisWorkerOptions {
   env: Env;
-  /** Defaults to the PARAXIA_ANALYSIS_* variables of this process. */
+  /** Each defaults to its PARAXIA_ANALYSIS_* variable in `env`. */
   queueSettings?: Partial<AnalysisQueueSettings>;
   log?: Logger;
-  /** Frames the engine decodes at once (PARAXIA_ANALYSIS_ENGINE_CONCURRENCY); default: the engine's. */
+  /** Frames the engine decodes at once; default PARAXIA_ANALYSIS_ENGINE_CONCURRENCY, else the engine's. */
   engineConcurrency?: number;
+  /** Default PARAXIA_ANALYSIS_SCRATCH_DIR, else a folder in the system's temporary folder. */
   scratchDir?: string;
   /** How long stop() waits for a job under way before giving it back to the queue. */
   stopGraceMs?: number;
@@ -38,21 +39,11 @@ export interface RunningAnalysisWorker {
   stop(): Promise<void>;
 }
 
-function engineConcurrencyFromEnv(source: Record<string, string | undefined>): number | undefined {
-  const raw = source.PARAXIA_ANALYSIS_ENGINE_CONCURRENCY;
-  if (raw === undefined || raw.trim() === '') return undefined;
-  const value = Number(raw);
-  if (!Number.isInteger(value) || value < 1 || value > 64) {
-    throw new Error(`PARAXIA_ANALYSIS_ENGINE_CONCURRENCY must be a whole number from 1 to 64 (got ${JSON.stringify(raw)}).`);
-  }
-  return value;
-}
-
 /** Starts one worker in this process (the entry point below, or a test). */
 export async function startAnalysisWorker(options: AnalysisWorkerOptions): Promise<RunningAnalysisWorker> {
   const { env } = options;
   const log = options.log ?? createLogger({ level: env.LOG_LEVEL, name: 'analysis-worker' });
-  const settings = { ...readAnalysisQueueSettings(), ...options.queueSettings };
+  const settings = { ...analysisQueueSettingsFromEnv(env), ...options.queueSettings };
   // One connection holds the lease of the run under way; the others serve progress writes and checks.
   const { pool, db } = createDatabase({ databaseUrl: env.DATABASE_URL, maxConnections: 4 });
   const storage = createObjectStorage(env);
@@ -61,8 +52,8 @@ export async function startAnalysisWorker(options: AnalysisWorkerOptions): Promi
     pool,
     storage,
     log,
-    scratchDir: options.scratchDir ?? process.env.PARAXIA_ANALYSIS_SCRATCH_DIR ?? defaultScratchDir(),
-    engineConcurrency: options.engineConcurrency ?? engineConcurrencyFromEnv(process.env),
+    scratchDir: options.scratchDir ?? env.PARAXIA_ANALYSIS_SCRATCH_DIR ?? defaultScratchDir(),
+    engineConcurrency: options.engineConcurrency ?? env.PARAXIA_ANALYSIS_ENGINE_CONCURRENCY,
   };
   // Each job makes its own folder inside this one; a missing parent would fail every job.
   await mkdir(context.scratchDir, { recursive: true });
@@ -124,16 +115,7 @@ export async function startAnalysisWorker(options: AnalysisWorkerOptions): Promi
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
   const env = loadEnvOrExit();
   const log = createLogger({ level: env.LOG_LEVEL, name: 'analysis-worker' });
-  let queueSettings: AnalysisQueueSettings;
-  let engineConcurrency: number | undefined;
-  try {
-    queueSettings = readAnalysisQueueSettings();
-    engineConcurrency = engineConcurrencyFromEnv(process.env);
-  } catch (error) {
-    console.error((error as Error).message);
-    process.exit(1);
-  }
-  startAnalysisWorker({ env, log, queueSettings, engineConcurrency }).then(
+  startAnalysisWorker({ env, log }).then(
     (worker) => {
       // The outbox is sent from here, never from the web process, so no request waits on SMTP.
       const mail = startWorkerMailDispatcher(env, log);

@@ -4,31 +4,22 @@
  * invitee (the link is read from the outbox row), change a role, deactivate
  * someone, look after an organisation's contacts, filter the audit log and
  * export it, retry a failed message, and use "forgot your password?".
- * Every admin page is photographed (PARAXIA_TEST_SCREENSHOT_DIR, or a
- * scratch folder) for people to look at; the pictures are never asserted.
+ * Every admin page is photographed (/tmp/shots/admin-journey) for people
+ * to look at; the pictures are never asserted.
  */
-import { mkdir, mkdtemp } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
 import { eq } from 'drizzle-orm';
-import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { outboundMail, people } from '../../server/db/schema';
 import { queueMail } from '../../server/services/outbound-mail/queue-mail';
 import { recordAuditEvent } from '../../server/services/audit-log';
 import { latestOutboxMessage, tokenInLink } from '../api/admin/admin-fixtures';
 import { createTestOrganisation, createTestPerson, uniqueSuffix, type TestPerson } from '../helpers/people';
-import { createTestApp, type TestApp } from '../helpers/test-app';
-import { requireTestServices } from '../setup/test-services';
-import { buildClientOnce } from './build-client-once';
-import { launchChromium, type RunningChromium } from './launch-chromium';
-import { listenOnLoopback, type ListeningApp } from './listen-on-loopback';
+import type { TestApp } from '../helpers/test-app';
+import type { RunningChromium } from './launch-chromium';
+import { shown, signInThroughPage, startBrowserStage, watchForPageErrors, type BrowserStage } from './browser-pages';
 
-let runDir: string;
-let screenshotDir: string;
+let stage: BrowserStage | undefined;
 let testApp: TestApp | undefined;
-let listening: ListeningApp | undefined;
-let adminBrowser: RunningChromium | undefined;
 let inviteeBrowser: RunningChromium | undefined;
 let baseUrl: string;
 let admin: TestPerson;
@@ -37,13 +28,8 @@ let clientName: string;
 let failedMailSubject: string;
 
 beforeAll(async () => {
-  requireTestServices();
-  const scratchRoot = process.env.PARAXIA_TEST_SCRATCH_DIR ?? tmpdir();
-  runDir = await mkdtemp(path.join(scratchRoot, 'admin-journey-'));
-  screenshotDir = process.env.PARAXIA_TEST_SCREENSHOT_DIR ?? path.join(runDir, 'screenshots');
-  await mkdir(screenshotDir, { recursive: true });
-  const client = await buildClientOnce({ scratchDir: process.env.PARAXIA_TEST_SCRATCH_DIR ?? runDir });
-  testApp = createTestApp({ env: { CLIENT_DIST_DIR: client.distDir } });
+  stage = await startBrowserStage({ name: 'admin-journey' });
+  ({ testApp, baseUrl } = stage);
 
   const suffix = uniqueSuffix();
   const lab = await createTestOrganisation(testApp.deps, { kind: 'lab', name: `Larkspur Optical Test Laboratory ${suffix}` });
@@ -65,60 +51,28 @@ beforeAll(async () => {
     .where(eq(outboundMail.id, failedId!));
   await recordAuditEvent(testApp.deps.db, { actorId: null, action: 'auth.sign-in-failed', subjectType: 'person', subjectId: leaver.id, details: { email: leaver.email, reason: 'wrong-password' }, ip: '127.0.0.1' });
 
-  listening = await listenOnLoopback({ app: testApp.app });
-  baseUrl = listening.baseUrl;
-  adminBrowser = await launchChromium({ scratchDir: runDir, actionTimeoutMs: 30_000 });
-  inviteeBrowser = await launchChromium({ scratchDir: runDir, actionTimeoutMs: 30_000 });
+  inviteeBrowser = await stage.launchBrowser();
 }, 240_000);
 
 afterAll(async () => {
-  const problems: unknown[] = [];
-  for (const close of [() => adminBrowser?.close(), () => inviteeBrowser?.close(), () => listening?.close(), () => testApp?.close()]) {
-    try {
-      await close();
-    } catch (error) {
-      problems.push(error);
-    }
-  }
-  console.info(`admin journey: screenshots in ${screenshotDir}`);
-  if (problems.length > 0) throw problems[0];
+  console.info(`admin journey: screenshots in ${stage?.screenshotDir}`);
+  await stage?.close();
 }, 60_000);
-
-let shotNumber = 0;
-async function screenshot(page: Page, name: string): Promise<void> {
-  shotNumber += 1;
-  const file = path.join(screenshotDir, `${String(shotNumber).padStart(2, '0')}-${name}.png`);
-  await page.screenshot({ path: file, fullPage: true }).catch((error: Error) => console.warn(`Screenshot ${file} failed: ${error.message}`));
-}
-
-async function shown(locator: Locator, timeoutMs?: number): Promise<Locator> {
-  await locator.waitFor({ state: 'visible', timeout: timeoutMs });
-  return locator;
-}
-
-function watchErrors(page: Page, into: string[]): void {
-  page.on('pageerror', (error) => into.push(`page error: ${error.message}`));
-  page.on('response', (response) => {
-    if (response.url().includes('/api/') && response.status() >= 500) into.push(`${response.status()} ${response.request().method()} ${response.url()}`);
-  });
-}
 
 describe('the administrator’s journey in a browser', () => {
   it('invites a technician who accepts from the e-mailed link, changes a role, deactivates someone, keeps contacts, filters and exports the audit log, and retries mail', async () => {
-    if (!adminBrowser || !inviteeBrowser) throw new Error('beforeAll did not start the browsers.');
+    if (!stage || !inviteeBrowser) throw new Error('beforeAll did not start the browsers.');
+    const { screenshot } = stage;
     const errors: string[] = [];
-    const page = await adminBrowser.context.newPage();
-    watchErrors(page, errors);
+    const page = await stage.browser.context.newPage();
+    watchForPageErrors(page, errors);
     const suffix = uniqueSuffix();
     const inviteeName = `Ilse Varga ${suffix}`;
     const inviteeEmail = `ilse.varga-${suffix}@larkspur-lab.example`;
     const inviteePassword = 'focus through the bench';
 
     // Sign in; the admin's home is the system overview.
-    await page.goto(`${baseUrl}/sign-in`);
-    await page.getByLabel('E-mail address').fill(admin.email);
-    await page.getByLabel('Password').fill(admin.password);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signInThroughPage(page, baseUrl, admin);
     await shown(page.getByRole('heading', { level: 1, name: 'System overview' }));
     await shown(page.getByText('failed sign-ins today (UTC)'));
     await screenshot(page, 'system-overview');
@@ -141,7 +95,7 @@ describe('the administrator’s journey in a browser', () => {
     expect(message?.subject).toMatch(/^Your invitation to Paraxia/);
     const token = tokenInLink(message!, 'invitation');
     const inviteePage = await inviteeBrowser.context.newPage();
-    watchErrors(inviteePage, errors);
+    watchForPageErrors(inviteePage, errors);
     await inviteePage.goto(`${baseUrl}/invitation/${token}`);
     await shown(inviteePage.getByRole('heading', { level: 1, name: 'Accept your invitation' }));
     await shown(inviteePage.getByText(inviteeEmail));
@@ -231,10 +185,10 @@ describe('the administrator’s journey in a browser', () => {
     await shown(preview.getByText('Will retry'));
 
     // "Forgot your password?" from the sign-in page, as the new technician, in a fresh browser.
-    const third = await launchChromium({ scratchDir: runDir, actionTimeoutMs: 30_000 });
+    const third = await stage.launchBrowser();
     try {
       const visitor = await third.context.newPage();
-      watchErrors(visitor, errors);
+      watchForPageErrors(visitor, errors);
       await visitor.goto(`${baseUrl}/sign-in`);
       await visitor.getByRole('button', { name: 'Forgot your password?' }).click();
       await shown(visitor.getByRole('heading', { level: 1, name: 'Forgot your password?' }));

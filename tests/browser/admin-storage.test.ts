@@ -3,42 +3,29 @@
  * tables, a retention preview and purge, and the removal of an object without
  * a record, against the real app, PostgreSQL and fake S3 of `npm test`. Every
  * step is scoped to this file's own client organisation, because other test
- * files share the bucket. Screenshots go to PARAXIA_TEST_SCREENSHOT_DIR or
- * /tmp/shots/storage.
+ * files share the bucket. Screenshots go to /tmp/shots/storage (or a
+ * folder of that name in PARAXIA_TEST_SCREENSHOT_DIR).
  */
-import { mkdir, mkdtemp, rm } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
-import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestPerson, type TestPerson } from '../helpers/people';
-import { createTestApp, type TestApp } from '../helpers/test-app';
-import { requireTestServices } from '../setup/test-services';
+import type { TestApp } from '../helpers/test-app';
 import { createStoredOrganisation, putFiller, type StoredOrganisation } from '../api/storage/storage-layout';
-import { buildClientOnce } from './build-client-once';
-import { launchChromium, type RunningChromium } from './launch-chromium';
-import { listenOnLoopback, type ListeningApp } from './listen-on-loopback';
+import { shown, signInThroughPage, startBrowserStage, type BrowserStage } from './browser-pages';
 
-// Objects of any age are offered here, so the object made a moment ago can be shown and removed.
-process.env.PARAXIA_ORPHAN_MIN_AGE_MINUTES = '0';
-
-let runDir: string;
-let screenshotDir: string;
+let stage: BrowserStage | undefined;
 let testApp: TestApp | undefined;
-let listening: ListeningApp | undefined;
-let browser: RunningChromium | undefined;
 let admin: TestPerson;
 let place: StoredOrganisation;
 let strayKey: string;
 
 beforeAll(async () => {
-  requireTestServices();
-  const scratchRoot = process.env.PARAXIA_TEST_SCRATCH_DIR ?? tmpdir();
-  runDir = await mkdtemp(path.join(scratchRoot, 'admin-storage-'));
-  screenshotDir = process.env.PARAXIA_TEST_SCREENSHOT_DIR ?? '/tmp/shots/storage';
-  await mkdir(screenshotDir, { recursive: true });
-  const client = await buildClientOnce({ scratchDir: process.env.PARAXIA_TEST_SCRATCH_DIR ?? runDir });
-  testApp = createTestApp({ env: { CLIENT_DIST_DIR: client.distDir } });
+  stage = await startBrowserStage({
+    name: 'admin-storage',
+    screenshotFolder: 'storage',
+    // Objects of any age are offered here, so the object made a moment ago can be shown and removed.
+    env: { PARAXIA_ORPHAN_MIN_AGE_MINUTES: '0' },
+  });
+  testApp = stage.testApp;
   admin = await createTestPerson(testApp.deps, { roles: ['admin'] });
   place = await createStoredOrganisation(testApp.deps, [
     [
@@ -49,46 +36,20 @@ beforeAll(async () => {
   ]);
   strayKey = `${place.workOrders[0].prefix}interrupted-upload.bin`;
   await putFiller(testApp.deps, strayKey, 48_000);
-  listening = await listenOnLoopback({ app: testApp.app });
-  browser = await launchChromium({ scratchDir: runDir, actionTimeoutMs: 30_000 });
 }, 240_000);
 
 afterAll(async () => {
-  const problems: unknown[] = [];
-  for (const close of [() => browser?.close(), () => listening?.close(), () => testApp?.close()]) {
-    try {
-      await close();
-    } catch (error) {
-      problems.push(error);
-    }
-  }
-  if (runDir) await rm(runDir, { recursive: true, force: true });
-  if (problems.length > 0) throw problems[0];
+  await stage?.close();
 }, 60_000);
-
-let shotNumber = 0;
-/** A picture of each step for people reading a run; never asserted. */
-async function screenshot(page: Page, name: string): Promise<void> {
-  shotNumber += 1;
-  const file = path.join(screenshotDir, `${String(shotNumber).padStart(2, '0')}-${name}.png`);
-  await page.screenshot({ path: file, fullPage: true }).catch((error: Error) => console.warn(`Screenshot ${file} failed: ${error.message}`));
-}
-
-async function shown(locator: Locator): Promise<Locator> {
-  await locator.waitFor({ state: 'visible' });
-  return locator;
-}
 
 describe('admin storage page', () => {
   it('shows use for one organisation, purges the previewed raw frames after a confirmation and removes an object without a record', async () => {
-    const page = await browser!.context.newPage();
-    await page.goto(`${listening!.baseUrl}/sign-in`);
-    await page.getByLabel('E-mail address').fill(admin.email);
-    await page.getByLabel('Password').fill(admin.password);
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
+    const { browser, baseUrl, screenshot } = stage!;
+    const page = await browser.context.newPage();
+    await signInThroughPage(page, baseUrl, admin);
+    expect(new URL(page.url()).pathname.startsWith('/sign-in')).toBe(false);
 
-    await page.goto(`${listening!.baseUrl}/admin/storage?organisation=${place.organisationId}`);
+    await page.goto(`${baseUrl}/admin/storage?organisation=${place.organisationId}`);
     await shown(page.getByRole('heading', { level: 1, name: 'Storage and retention' }));
     await shown(page.locator('[data-testid="storage-use"]:not([data-stale])'));
     const workOrderTable = page.getByRole('table', { name: /By work order/ });

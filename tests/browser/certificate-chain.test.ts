@@ -12,12 +12,10 @@
  * The app is told its own loopback address as PUBLIC_BASE_URL, so the link
  * in the PDF and in the mail is the one the visitor's browser opens.
  */
-import { mkdir, mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
+import { readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { and, asc, eq } from 'drizzle-orm';
 import { simpleParser, type ParsedMail } from 'mailparser';
-import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sha256Hex } from '../../server/certificates/verification-code';
 import { auditEvents, certificates, outboundMail } from '../../server/db/schema';
@@ -26,19 +24,12 @@ import { readMailIndex, readStoredMailSource } from '../../server/services/mail-
 import { dispatchDueMail } from '../../server/services/outbound-mail/dispatch-due-mail';
 import { flowText, pdfPagesText, runPoppler } from '../certificates/poppler';
 import { createTestPerson, type TestPerson } from '../helpers/people';
-import { createTestApp, type TestApp } from '../helpers/test-app';
-import { requireTestServices } from '../setup/test-services';
+import type { TestApp } from '../helpers/test-app';
 import { createReviewBench, measurementStatusOf, stageMeasurement, type ReviewBench, type StagedMeasurement } from '../api/review/review-bench';
-import { buildClientOnce } from './build-client-once';
-import { choosePublicLoopbackAddress, listenAtPublicLoopbackAddress } from './certificate-chain-listen';
-import { launchChromium, type RunningChromium } from './launch-chromium';
-import type { ListeningApp } from './listen-on-loopback';
+import { shown, signInThroughPage, startBrowserStage, watchForPageErrors, type BrowserStage } from './browser-pages';
 
-const screenshotDir = '/tmp/shots/chain';
-let runDir: string;
+let stage: BrowserStage | undefined;
 let testApp: TestApp | undefined;
-let listening: ListeningApp | undefined;
-let browser: RunningChromium | undefined;
 let baseUrl: string;
 let bench: ReviewBench;
 let technician: TestPerson;
@@ -47,69 +38,18 @@ let client: TestPerson;
 let staged: StagedMeasurement;
 
 beforeAll(async () => {
-  requireTestServices();
-  const scratchRoot = process.env.PARAXIA_TEST_SCRATCH_DIR ?? tmpdir();
-  runDir = await mkdtemp(path.join(scratchRoot, 'certificate-chain-'));
-  await rm(screenshotDir, { recursive: true, force: true });
-  await mkdir(screenshotDir, { recursive: true });
-  const built = await buildClientOnce({ scratchDir: process.env.PARAXIA_TEST_SCRATCH_DIR ?? runDir });
-  const address = await choosePublicLoopbackAddress();
-  baseUrl = address.baseUrl;
-  testApp = createTestApp({ env: { CLIENT_DIST_DIR: built.distDir, PUBLIC_BASE_URL: baseUrl } });
+  stage = await startBrowserStage({ name: 'certificate-chain', screenshotFolder: 'chain', tellAppItsAddress: true });
+  ({ testApp, baseUrl } = stage);
   bench = await createReviewBench(testApp);
   technician = await createTestPerson(testApp.deps, { roles: ['technician'], name: 'Maren Oakhurst', emailPrefix: 'chain-technician' });
   reviewer = await createTestPerson(testApp.deps, { roles: ['reviewer'], name: 'Teodor Vasquill', emailPrefix: 'chain-reviewer' });
   client = await createTestPerson(testApp.deps, { roles: ['client'], organisationId: bench.organisation.id, name: 'Priya Lindqvist', emailPrefix: 'chain-client' });
   staged = await stageMeasurement(testApp, bench, { performedById: technician.id, status: 'analysed' });
-  listening = await listenAtPublicLoopbackAddress({ app: testApp.app, address });
-  browser = await launchChromium({ scratchDir: runDir, actionTimeoutMs: 30_000 });
 }, 240_000);
 
 afterAll(async () => {
-  const problems: unknown[] = [];
-  for (const close of [() => browser?.close(), () => listening?.close(), () => testApp?.close()]) {
-    try {
-      await close();
-    } catch (error) {
-      problems.push(error);
-    }
-  }
-  if (runDir) await rm(runDir, { recursive: true, force: true });
-  if (problems.length > 0) throw problems[0];
+  await stage?.close();
 }, 60_000);
-
-let shotNumber = 0;
-/** A picture of each step for people reading a run (/tmp/shots/chain); never asserted. */
-async function screenshot(page: Page, name: string): Promise<void> {
-  shotNumber += 1;
-  await page.screenshot({ path: path.join(screenshotDir, `${String(shotNumber).padStart(2, '0')}-${name}.png`), fullPage: true });
-}
-
-async function shown(locator: Locator): Promise<Locator> {
-  await locator.waitFor({ state: 'visible' });
-  return locator;
-}
-
-/** Uncaught page errors and 5xx answers from the API, collected so the test can require none. */
-function watchForErrors(page: Page, into: string[]): void {
-  page.on('pageerror', (error) => into.push(`${page.url()}: ${error.message}`));
-  page.on('response', (response) => {
-    if (response.url().includes('/api/') && response.status() >= 500) into.push(`${response.status()} ${response.url()}`);
-  });
-}
-
-async function signIn(page: Page, person: TestPerson): Promise<void> {
-  await page.goto(`${baseUrl}/`);
-  const signOut = page.getByRole('button', { name: 'Sign out' });
-  const signInHeading = page.getByRole('heading', { level: 1, name: 'Sign in' });
-  await signOut.or(signInHeading).first().waitFor();
-  if (await signOut.isVisible()) await signOut.click();
-  await signInHeading.waitFor();
-  await page.getByLabel('E-mail address').fill(person.email);
-  await page.getByLabel('Password').fill(person.password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('button', { name: 'Sign out' }).waitFor();
-}
 
 /** What the fake SMTP server kept with exactly this subject, parsed. */
 async function receivedWithSubject(subject: string): Promise<{ envelopeTo: string[]; parsed: ParsedMail }[]> {
@@ -120,14 +60,15 @@ async function receivedWithSubject(subject: string): Promise<{ envelopeTo: strin
 
 describe('the certificate chain in Chromium', () => {
   it('technician submits → another person approves and issues → the client is mailed, downloads the PDF byte for byte → a visitor following the PDF’s link sees it genuine and current, the file matching and a tampered copy not', async () => {
-    if (!browser || !testApp) throw new Error('beforeAll did not start the browser.');
+    if (!stage || !testApp) throw new Error('beforeAll did not start the browser.');
+    const { browser, screenshot, screenshotDir, runDir } = stage;
     const { db } = testApp.deps;
     const errors: string[] = [];
     const page = await browser.context.newPage();
-    watchForErrors(page, errors);
+    watchForPageErrors(page, errors);
 
     // 1. The technician submits the analysed measurement.
-    await signIn(page, technician);
+    await signInThroughPage(page, baseUrl, technician);
     await page.goto(`${baseUrl}/measurements/${staged.id}`);
     await shown(page.getByRole('heading', { name: 'Review', exact: true }));
     await screenshot(page, 'technician-analysed');
@@ -137,7 +78,7 @@ describe('the certificate chain in Chromium', () => {
     await screenshot(page, 'technician-submitted');
 
     // 2. A reviewer (not the performer) finds it in the queue, approves it and issues the certificate.
-    await signIn(page, reviewer);
+    await signInThroughPage(page, baseUrl, reviewer);
     await page.goto(`${baseUrl}/review`);
     const queued = await shown(page.getByRole('link', { name: staged.number }).first());
     await screenshot(page, 'reviewer-queue');
@@ -190,7 +131,7 @@ describe('the certificate chain in Chromium', () => {
     expect(received[0].parsed.html).toContain(`href="${mailLinks[0]}"`);
 
     // 4. The client signs in, finds the certified result on /orders and downloads the PDF through the page.
-    await signIn(page, client);
+    await signInThroughPage(page, baseUrl, client);
     await page.goto(`${baseUrl}/orders`);
     await shown(page.getByRole('heading', { level: 1, name: 'Your orders and certificates' }));
     const order = await shown(page.locator(`[data-work-order="${bench.workOrder.number}"]`));
@@ -240,7 +181,7 @@ describe('the certificate chain in Chromium', () => {
     await page.close();
     await browser.context.clearCookies();
     const visitor = await browser.context.newPage();
-    watchForErrors(visitor, errors);
+    watchForPageErrors(visitor, errors);
     expect((await visitor.request.get(`${baseUrl}/api/auth/me`)).status()).toBe(401);
     await visitor.goto(printedLinks[0]);
     const verdict = await shown(visitor.locator('[data-verdict="current"]'));

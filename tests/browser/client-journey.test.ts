@@ -7,98 +7,48 @@
  * one certificate), as the issuing code would leave them.
  */
 import { createHash } from 'node:crypto';
-import { mkdir, mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
+import { readFile, rm, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { and, eq } from 'drizzle-orm';
-import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { lenses, outboundMail, workOrders } from '../../server/db/schema';
 import { createTestOrganisation, createTestPerson, type TestPerson } from '../helpers/people';
-import { createTestApp, type TestApp } from '../helpers/test-app';
-import { requireTestServices } from '../setup/test-services';
 import { insertCertifiedLens, type CertifiedLens } from '../api/verification/issued-certificate-fixture';
-import { buildClientOnce } from './build-client-once';
-import { launchChromium, type RunningChromium } from './launch-chromium';
-import { listenOnLoopback, type ListeningApp } from './listen-on-loopback';
+import { shown, signInThroughPage, startBrowserStage, watchForPageErrors, type BrowserStage } from './browser-pages';
 
-let runDir: string;
-let screenshotDir: string;
-let testApp: TestApp | undefined;
-let listening: ListeningApp | undefined;
-let browser: RunningChromium | undefined;
+let stage: BrowserStage | undefined;
 let baseUrl: string;
 let client: TestPerson;
 let organisation: { id: string; name: string };
 let certified: CertifiedLens;
 
 beforeAll(async () => {
-  requireTestServices();
-  const scratchRoot = process.env.PARAXIA_TEST_SCRATCH_DIR ?? tmpdir();
-  runDir = await mkdtemp(path.join(scratchRoot, 'client-journey-'));
-  screenshotDir = process.env.PARAXIA_TEST_SCREENSHOT_DIR ?? path.join(runDir, 'screenshots');
-  await mkdir(screenshotDir, { recursive: true });
-  const built = await buildClientOnce({ scratchDir: process.env.PARAXIA_TEST_SCRATCH_DIR ?? runDir });
-  testApp = createTestApp({ env: { CLIENT_DIST_DIR: built.distDir } });
+  stage = await startBrowserStage({ name: 'client-journey' });
+  const { testApp } = stage;
+  baseUrl = stage.baseUrl;
   organisation = await createTestOrganisation(testApp.deps, { kind: 'client', name: `Harrowgate Lens Works ${Date.now()}` });
   const lab = await createTestOrganisation(testApp.deps, { kind: 'lab' });
   await createTestPerson(testApp.deps, { roles: ['reviewer'], organisationId: lab.id });
   client = await createTestPerson(testApp.deps, { roles: ['client'], organisationId: organisation.id, name: 'Ilse Marchetti' });
   certified = await insertCertifiedLens(testApp.deps, { organisationId: organisation.id, organisationName: organisation.name, revisionCount: 2 });
   await insertCertifiedLens(testApp.deps, { organisationId: organisation.id, organisationName: organisation.name, revisionCount: 0, measurementStatus: 'submitted', workOrderId: certified.workOrderId });
-  listening = await listenOnLoopback({ app: testApp.app });
-  baseUrl = listening.baseUrl;
-  browser = await launchChromium({ scratchDir: runDir, actionTimeoutMs: 30_000 });
 }, 240_000);
 
 afterAll(async () => {
-  const problems: unknown[] = [];
-  for (const close of [() => browser?.close(), () => listening?.close(), () => testApp?.close()]) {
-    try {
-      await close();
-    } catch (error) {
-      problems.push(error);
-    }
-  }
-  console.info(`client journey: screenshots in ${screenshotDir}`);
-  if (problems.length > 0) throw problems[0];
+  console.info(`client journey: screenshots in ${stage?.screenshotDir}`);
+  await stage?.close();
 }, 60_000);
-
-let shotNumber = 0;
-/** A picture of each main step for people reading a run; never asserted. */
-async function screenshot(page: Page, name: string): Promise<void> {
-  shotNumber += 1;
-  const file = path.join(screenshotDir, `${String(shotNumber).padStart(2, '0')}-${name}.png`);
-  await page.screenshot({ path: file, fullPage: true }).catch((error: Error) => console.warn(`Screenshot ${file} failed: ${error.message}`));
-}
-
-async function shown(locator: Locator): Promise<Locator> {
-  await locator.waitFor({ state: 'visible' });
-  return locator;
-}
-
-function watchForErrors(page: Page): string[] {
-  const errors: string[] = [];
-  page.on('pageerror', (error) => errors.push(error.message));
-  page.on('response', (response) => {
-    if (response.url().includes('/api/') && response.status() >= 500) errors.push(`${response.status()} ${response.url()}`);
-  });
-  return errors;
-}
 
 describe('the client’s journey and public verification in a browser', () => {
   it('a client sees their order, downloads the current certificate byte for byte, requests new work; a visitor verifies the code and the PDF', async () => {
-    if (!browser || !testApp) throw new Error('beforeAll did not start the browser.');
+    if (!stage) throw new Error('beforeAll did not start the browser.');
+    const { browser, testApp, runDir, screenshot } = stage;
     const page = await browser.context.newPage();
-    const errors = watchForErrors(page);
+    const errors = watchForPageErrors(page);
     const current = certified.revisions[1];
 
     // 1. Sign in: a client lands on their orders.
-    await page.goto(`${baseUrl}/`);
-    await shown(page.getByRole('heading', { level: 1, name: 'Sign in' }));
-    await page.getByLabel('E-mail address').fill(client.email);
-    await page.getByLabel('Password').fill(client.password);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signInThroughPage(page, baseUrl, client);
     await shown(page.getByRole('heading', { level: 1, name: 'Your orders and certificates' }));
     const order = await shown(page.locator(`[data-work-order="${certified.workOrderNumber}"]`));
     await screenshot(page, 'client-orders');
@@ -156,7 +106,7 @@ describe('the client’s journey and public verification in a browser', () => {
     // 5. An anonymous visitor: the code from the certificate, then the downloaded PDF.
     await browser.context.clearCookies();
     const visitor = await browser.context.newPage();
-    const visitorErrors = watchForErrors(visitor);
+    const visitorErrors = watchForPageErrors(visitor);
     await visitor.goto(`${baseUrl}/verify/${current.verificationCode}`);
     await shown(visitor.getByText('Genuine and current', { exact: true }));
     await shown(visitor.getByText(certified.lensIdentifier));

@@ -6,80 +6,44 @@
  * the API stored. The measurement's analysis is a real engine result on the
  * project's synthetic bench (tests/api/review/review-bench.ts).
  */
-import { mkdir, mkdtemp, readFile, rm } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
+import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sha256Hex } from '../../server/certificates/verification-code';
 import { runPoppler } from '../certificates/poppler';
 import { createTestPerson, type TestPerson } from '../helpers/people';
-import { createTestApp, type TestApp } from '../helpers/test-app';
-import { requireTestServices } from '../setup/test-services';
+import type { TestApp } from '../helpers/test-app';
 import { createReviewBench, measurementStatusOf, stageMeasurement, type StagedMeasurement } from '../api/review/review-bench';
-import { buildClientOnce } from './build-client-once';
-import { launchChromium, type RunningChromium } from './launch-chromium';
-import { listenOnLoopback, type ListeningApp } from './listen-on-loopback';
+import { signInThroughPage, startBrowserStage, type BrowserStage } from './browser-pages';
 
-const screenshotDir = '/tmp/shots/review';
-let runDir: string;
+let stage: BrowserStage | undefined;
 let testApp: TestApp | undefined;
-let listening: ListeningApp | undefined;
-let browser: RunningChromium | undefined;
+let baseUrl: string;
 let technician: TestPerson;
 let reviewer: TestPerson;
 let staged: StagedMeasurement;
 let page: Page;
 
 beforeAll(async () => {
-  requireTestServices();
-  runDir = await mkdtemp(path.join(process.env.PARAXIA_TEST_SCRATCH_DIR ?? tmpdir(), 'review-journey-'));
-  await mkdir(screenshotDir, { recursive: true });
-  const client = await buildClientOnce({ scratchDir: process.env.PARAXIA_TEST_SCRATCH_DIR ?? runDir });
-  testApp = createTestApp({ env: { CLIENT_DIST_DIR: client.distDir } });
+  stage = await startBrowserStage({ name: 'review-journey', screenshotFolder: 'review' });
+  ({ testApp, baseUrl } = stage);
   const bench = await createReviewBench(testApp);
   technician = await createTestPerson(testApp.deps, { roles: ['technician'], name: 'Ilse Varnholt', emailPrefix: 'review-journey-technician' });
   reviewer = await createTestPerson(testApp.deps, { roles: ['reviewer'], name: 'Oren Castellane', emailPrefix: 'review-journey-reviewer' });
   staged = await stageMeasurement(testApp, bench, { performedById: technician.id, status: 'analysed' });
-  listening = await listenOnLoopback({ app: testApp.app });
-  browser = await launchChromium({ scratchDir: runDir, actionTimeoutMs: 30_000 });
-  page = await browser.context.newPage();
+  page = await stage.browser.context.newPage();
 }, 240_000);
 
 afterAll(async () => {
-  const problems: unknown[] = [];
-  for (const close of [() => browser?.close(), () => listening?.close(), () => testApp?.close()]) {
-    try {
-      await close();
-    } catch (error) {
-      problems.push(error);
-    }
-  }
-  if (runDir) await rm(runDir, { recursive: true, force: true });
-  if (problems.length > 0) throw problems[0];
+  await stage?.close();
 }, 60_000);
 
-let shotNumber = 0;
-async function screenshot(name: string): Promise<void> {
-  shotNumber += 1;
-  await page.screenshot({ path: path.join(screenshotDir, `${String(shotNumber).padStart(2, '0')}-${name}.png`), fullPage: true });
-}
-
-async function signIn(person: TestPerson): Promise<void> {
-  await page.goto(`${listening!.baseUrl}/`);
-  const signOut = page.getByRole('button', { name: 'Sign out' });
-  const signInHeading = page.getByRole('heading', { level: 1, name: 'Sign in' });
-  await signOut.or(signInHeading).first().waitFor();
-  if (await signOut.isVisible()) await signOut.click();
-  await signInHeading.waitFor();
-  await page.getByLabel('E-mail address').fill(person.email);
-  await page.getByLabel('Password').fill(person.password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('button', { name: 'Sign out' }).waitFor();
-}
+const screenshot = (name: string) => stage!.screenshot(page, name);
+const signIn = (person: TestPerson) => signInThroughPage(page, baseUrl, person);
 
 async function openMeasurement(): Promise<void> {
-  await page.goto(`${listening!.baseUrl}/measurements/${staged.id}`);
+  await page.goto(`${baseUrl}/measurements/${staged.id}`);
   await page.getByRole('heading', { name: 'Review', exact: true }).waitFor();
 }
 
@@ -93,7 +57,7 @@ describe('review journey in Chromium', () => {
     expect(await measurementStatusOf(testApp!, staged.id)).toBe('submitted');
 
     await signIn(reviewer);
-    await page.goto(`${listening!.baseUrl}/review`);
+    await page.goto(`${baseUrl}/review`);
     await page.getByRole('link', { name: staged.number }).first().click();
     await page.getByRole('heading', { name: 'Review', exact: true }).waitFor();
     await page.getByLabel('Return to the technician with a comment').fill('Please record which side of the lens faced the sensor.');
@@ -112,7 +76,7 @@ describe('review journey in Chromium', () => {
     expect(await measurementStatusOf(testApp!, staged.id)).toBe('submitted');
 
     await signIn(reviewer);
-    await page.goto(`${listening!.baseUrl}/review`);
+    await page.goto(`${baseUrl}/review`);
     await page.getByRole('link', { name: staged.number }).first().waitFor();
     await screenshot('review-queue');
     await openMeasurement();
@@ -124,13 +88,13 @@ describe('review journey in Chromium', () => {
     await screenshot('certified-with-certificate');
 
     const [download] = await Promise.all([page.waitForEvent('download'), downloadLink.click()]);
-    const pdfPath = path.join(screenshotDir, 'review-journey-certificate.pdf');
+    const pdfPath = path.join(stage!.screenshotDir, 'review-journey-certificate.pdf');
     await download.saveAs(pdfPath);
     const pdf = await readFile(pdfPath);
-    const listed = await (await page.request.get(`${listening!.baseUrl}/api/measurements/${staged.id}/certificates`)).json();
+    const listed = await (await page.request.get(`${baseUrl}/api/measurements/${staged.id}/certificates`)).json();
     expect(listed.certificates).toHaveLength(1);
     expect(sha256Hex(pdf)).toBe(listed.certificates[0].sha256);
-    runPoppler('pdftoppm', ['-r', '60', '-png', pdfPath, path.join(screenshotDir, 'certificate-page')]);
+    runPoppler('pdftoppm', ['-r', '60', '-png', pdfPath, path.join(stage!.screenshotDir, 'certificate-page')]);
 
     // The technician sees the certified measurement read-only: no analysis controls, no uploads.
     await signIn(technician);

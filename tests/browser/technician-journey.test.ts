@@ -5,25 +5,15 @@
  * frames are a generated through-focus series whose true focal length is
  * known, so the number on the page can be checked against the truth.
  */
-import { mkdir, mkdtemp, rm } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
+import { mkdir } from 'node:fs/promises';
 import path from 'node:path';
-import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startAnalysisWorker, type RunningAnalysisWorker } from '../../server/workers/analysis-worker';
 import { cachedBenchMeasurement, type CachedBenchMeasurement } from '../../scripts/synth/cached-bench-measurement';
 import { uniqueSuffix } from '../helpers/people';
-import { createTestApp, type TestApp } from '../helpers/test-app';
-import { requireTestServices } from '../setup/test-services';
-import { buildClientOnce } from './build-client-once';
+import { shown, signInThroughPage, startBrowserStage, stopAll, watchForPageErrors, type BrowserStage } from './browser-pages';
 import { createJourneyBench, type JourneyBench } from './journey-bench';
-import { launchChromium, type RunningChromium } from './launch-chromium';
-import { listenOnLoopback, type ListeningApp } from './listen-on-loopback';
 import { recordAnalysisProgress } from './record-analysis-progress';
-
-// This file's own queue, so workers of other test files never take its jobs.
-process.env.PARAXIA_ANALYSIS_QUEUE_NAME = `browser-journey-${uniqueSuffix()}`;
-process.env.PARAXIA_ANALYSIS_POLLING_SECONDS = '0.5';
 
 const NOMINAL_FOCAL_LENGTH_MM = 100;
 const TOLERANCE_PERCENT = 2;
@@ -31,12 +21,8 @@ const FRAMES_IN_SWEEP = 15;
 /** Waits for the server's work (upload checks, the analysis) on a loaded two-core machine. */
 const SLOW_STEP_MS = 150_000;
 
-let runDir: string;
-let screenshotDir: string;
-let testApp: TestApp | undefined;
+let stage: BrowserStage | undefined;
 let worker: RunningAnalysisWorker | undefined;
-let listening: ListeningApp | undefined;
-let browser: RunningChromium | undefined;
 let bench: JourneyBench;
 let fixture: CachedBenchMeasurement;
 let baseUrl: string;
@@ -54,15 +40,15 @@ async function timed<T>(name: string, work: () => Promise<T>): Promise<T> {
 }
 
 beforeAll(async () => {
-  requireTestServices();
-  const scratchRoot = process.env.PARAXIA_TEST_SCRATCH_DIR ?? tmpdir();
-  runDir = await mkdtemp(path.join(scratchRoot, 'technician-journey-'));
-  screenshotDir = process.env.PARAXIA_TEST_SCREENSHOT_DIR ?? path.join(runDir, 'screenshots');
-  await mkdir(screenshotDir, { recursive: true });
-
-  // Outside `npm test` there is no per-run scratch folder to share the build through, so it goes in this file's own.
-  const [client, generated] = await Promise.all([
-    timed('client build', () => buildClientOnce({ scratchDir: process.env.PARAXIA_TEST_SCRATCH_DIR ?? runDir })),
+  // The stage is kept as soon as it starts, so afterAll closes it even when the frames fail.
+  const [started, generated] = await Promise.all([
+    timed('client build, app and browser', async () =>
+      (stage = await startBrowserStage({
+        name: 'technician-journey',
+        // This file's own queue, so workers of other test files never take its jobs.
+        env: { PARAXIA_ANALYSIS_QUEUE_NAME: `browser-journey-${uniqueSuffix()}`, PARAXIA_ANALYSIS_POLLING_SECONDS: '0.5' },
+      })),
+    ),
     timed('bench frames', () =>
       cachedBenchMeasurement('finite-conjugate', (scenario) => ({
         ...scenario,
@@ -71,44 +57,18 @@ beforeAll(async () => {
     ),
   ]);
   fixture = generated;
-  testApp = createTestApp({ env: { CLIENT_DIST_DIR: client.distDir } });
-  bench = await createJourneyBench({ testApp, fixture });
+  baseUrl = started.baseUrl;
+  bench = await createJourneyBench({ testApp: started.testApp, fixture });
   // The worker makes each job's folder inside this one but does not make this one.
-  const workerScratchDir = path.join(runDir, 'analysis-worker');
+  const workerScratchDir = path.join(started.runDir, 'analysis-worker');
   await mkdir(workerScratchDir, { recursive: true });
-  worker = await startAnalysisWorker({ env: testApp.deps.env, scratchDir: workerScratchDir });
-  listening = await listenOnLoopback({ app: testApp.app });
-  baseUrl = listening.baseUrl;
-  browser = await timed('browser launch', () => launchChromium({ scratchDir: runDir, actionTimeoutMs: 30_000 }));
+  worker = await startAnalysisWorker({ env: started.testApp.deps.env, scratchDir: workerScratchDir });
 }, 240_000);
 
 afterAll(async () => {
-  // Each is closed even when an earlier one fails; the first failure is reported.
-  const problems: unknown[] = [];
-  for (const close of [() => browser?.close(), () => listening?.close(), () => worker?.stop(), () => testApp?.close()]) {
-    try {
-      await close();
-    } catch (error) {
-      problems.push(error);
-    }
-  }
-  if (runDir) await rm(path.join(runDir, 'analysis-worker'), { recursive: true, force: true });
-  console.info(`technician journey: timings (ms) ${JSON.stringify(timings)}; figures ${JSON.stringify(figures)}; screenshots in ${screenshotDir}`);
-  if (problems.length > 0) throw problems[0];
+  console.info(`technician journey: timings (ms) ${JSON.stringify(timings)}; figures ${JSON.stringify(figures)}; screenshots in ${stage?.screenshotDir}`);
+  await stopAll([() => worker?.stop(), () => stage?.close()]);
 }, 60_000);
-
-let shotNumber = 0;
-/** A picture of each main step for people reading a run; never asserted. */
-async function screenshot(page: Page, name: string): Promise<void> {
-  shotNumber += 1;
-  const file = path.join(screenshotDir, `${String(shotNumber).padStart(2, '0')}-${name}.png`);
-  await page.screenshot({ path: file, fullPage: true }).catch((error: Error) => console.warn(`Screenshot ${file} failed: ${error.message}`));
-}
-
-async function shown(locator: Locator, timeoutMs?: number): Promise<Locator> {
-  await locator.waitFor({ state: 'visible', timeout: timeoutMs });
-  return locator;
-}
 
 function escapeRegExp(text: string): string {
   return text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
@@ -129,16 +89,10 @@ function parseSpokenMillimetres(text: string): { valueMm: number; expandedUncert
 
 describe('the technician’s journey in a browser', () => {
   it('signing in, opening a work order, adding a lens, setting up, uploading, entering readings and analysing shows a focal length within 0.5 % of the generator’s truth, with conformity, focus curve and budget', async () => {
-    if (!browser) throw new Error('beforeAll did not start the browser.');
-    const page = await browser.context.newPage();
-    const pageErrors: string[] = [];
-    const serverErrors: string[] = [];
-    page.on('pageerror', (error) => pageErrors.push(error.message));
-    page.on('response', (response) => {
-      if (response.url().includes('/api/') && response.status() >= 500) {
-        serverErrors.push(`${response.status()} ${response.request().method()} ${response.url()}`);
-      }
-    });
+    if (!stage) throw new Error('beforeAll did not start the browser.');
+    const { screenshot } = stage;
+    const page = await stage.browser.context.newPage();
+    const errors = watchForPageErrors(page);
     const suffix = uniqueSuffix();
     const workOrderTitle = `Incoming inspection, plano-convex batch ${suffix}`;
     const lensIdentifier = `PCX-100-${suffix}`;
@@ -148,11 +102,7 @@ describe('the technician’s journey in a browser', () => {
     try {
       // 1. Sign in.
       await timed('sign in', async () => {
-        await page.goto(`${baseUrl}/`);
-        await shown(page.getByRole('heading', { level: 1, name: 'Sign in' }));
-        await page.getByLabel('E-mail address').fill(bench.technician.email);
-        await page.getByLabel('Password').fill(bench.technician.password);
-        await page.getByRole('button', { name: 'Sign in' }).click();
+        await signInThroughPage(page, baseUrl, bench.technician);
         await shown(page.getByRole('heading', { level: 1, name: 'Open work' }));
         await shown(page.getByText(bench.technician.name, { exact: true }));
       });
@@ -290,8 +240,7 @@ describe('the technician’s journey in a browser', () => {
       const budget = await shown(page.getByRole('table', { name: /^Uncertainty budget of f′/ }));
       expect(await budget.getByRole('rowheader').count()).toBeGreaterThanOrEqual(2);
 
-      expect(pageErrors, 'uncaught errors in the page').toEqual([]);
-      expect(serverErrors, 'API answers of 500 or more').toEqual([]);
+      expect(errors, 'uncaught errors in the page and API answers of 500 or more').toEqual([]);
     } catch (error) {
       await screenshot(page, 'failure');
       throw error;

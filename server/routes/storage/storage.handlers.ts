@@ -7,11 +7,11 @@ import { measureStorageUsage } from '../../services/storage/measure-storage-usag
 import { previewRetention } from '../../services/storage/preview-retention';
 import { purgeRawFrames } from '../../services/storage/purge-raw-frames';
 import { removeOrphanObjects } from '../../services/storage/remove-orphan-objects';
-import { readStorageSettings } from '../../services/storage/storage-settings';
+import { storageSettingsFromEnv } from '../../services/storage/storage-settings';
 import type { OrphanListQuery, OrphanRemovalBody, RetentionPreviewQuery, RetentionPurgeBody, StorageUsageQuery } from './storage.schemas';
 
-export function getStorageSettings(): RequestHandler {
-  const settings = readStorageSettings();
+export function getStorageSettings(deps: AppDeps): RequestHandler {
+  const settings = storageSettingsFromEnv(deps.env);
   return (_req, res) => {
     res.status(HttpStatus.OK).json({ settings });
   };
@@ -24,7 +24,7 @@ export function getStorageUsage(deps: AppDeps): RequestHandler {
 }
 
 export function getRetentionPreview(deps: AppDeps): RequestHandler {
-  const settings = readStorageSettings();
+  const settings = storageSettingsFromEnv(deps.env);
   return async (_req, res) => {
     const query = res.locals.query as RetentionPreviewQuery;
     const preview = await previewRetention(deps.db, {
@@ -42,7 +42,7 @@ export function postRetentionPurge(deps: AppDeps): RequestHandler {
 }
 
 export function getOrphanObjects(deps: AppDeps): RequestHandler {
-  const settings = readStorageSettings();
+  const settings = storageSettingsFromEnv(deps.env);
   return async (_req, res) => {
     const query = res.locals.query as OrphanListQuery;
     res.status(HttpStatus.OK).json(
@@ -52,7 +52,7 @@ export function getOrphanObjects(deps: AppDeps): RequestHandler {
 }
 
 export function postOrphanRemoval(deps: AppDeps): RequestHandler {
-  const settings = readStorageSettings();
+  const settings = storageSettingsFromEnv(deps.env);
   return async (req, res) => {
     const { keys } = res.locals.body as OrphanRemovalBody;
     res.status(HttpStatus.OK).json(await removeOrphanObjects(deps, { keys, minimumAgeMinutes: settings.orphanMinimumAgeMinutes }, actorOf(req)));

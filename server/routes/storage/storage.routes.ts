@@ -16,7 +16,7 @@ export const storageRoutes: RouteDefinition[] = [
     path: '/api/storage/settings',
     roles: ['admin'],
     summary: 'The default retention age and the minimum age of an object offered as an orphan.',
-    handlers: () => [getStorageSettings()],
+    handlers: (deps) => [getStorageSettings(deps)],
   },
   {
     method: 'get',

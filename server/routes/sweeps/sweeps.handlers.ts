@@ -10,8 +10,8 @@ import { actorOf } from '../../services/catalogue-queries';
 import {
   discardStoredFrame,
   frameChangeRefusal,
+  frameUploadSettingsFromEnv,
   loadSweepContext,
-  readFrameUploadSettings,
   storeFrameFromStream,
   type FrameUploadSettings,
 } from '../../services/frame-storage';
@@ -120,7 +120,7 @@ function checkSweepOpenForUploads(deps: AppDeps): RequestHandler {
 
 /** POST /api/sweeps/:sweepId/frames: one image in the multipart field "frame", streamed to object storage. */
 export function uploadFrameHandlers(deps: AppDeps): RequestHandler[] {
-  const settings = readFrameUploadSettings();
+  const settings = frameUploadSettingsFromEnv(deps.env);
   const receive = multer({
     storage: frameStorageEngine(deps, settings),
     defParamCharset: 'utf8',

@@ -8,8 +8,8 @@ import { startMailDispatcher } from './start-mail-dispatcher';
 export function startWorkerMailDispatcher(env: Env, log: Logger, options: { intervalMs?: number } = {}): { stop(): Promise<void> } {
   const { pool, db } = createDatabase({ databaseUrl: env.DATABASE_URL, maxConnections: 2 });
   const mailer = createMailer(env);
-  const intervalMs = options.intervalMs ?? Number(process.env.PARAXIA_MAIL_POLLING_MS ?? 5_000);
-  const dispatcher = startMailDispatcher({ db, mailer, log }, { intervalMs: Number.isFinite(intervalMs) && intervalMs > 0 ? intervalMs : 5_000 });
+  const intervalMs = options.intervalMs ?? env.PARAXIA_MAIL_POLLING_MS;
+  const dispatcher = startMailDispatcher({ db, mailer, log }, { intervalMs });
   log.info('Mail dispatcher ready.', { intervalMs });
   return {
     async stop() {

@@ -1,24 +1,12 @@
 import type { StorageSettings } from '../../../shared/schemas/storage';
-import { RETENTION_DAYS_MAX, RETENTION_DAYS_MIN } from '../../../shared/schemas/storage';
+import { numericSettings, type Env } from '../../env';
 
-export const defaultStorageSettings: StorageSettings = { retentionDefaultDays: 365, orphanMinimumAgeMinutes: 60 };
-
-const VARIABLES: Record<keyof StorageSettings, { variable: string; min: number; max: number }> = {
-  retentionDefaultDays: { variable: 'PARAXIA_RETENTION_DAYS', min: RETENTION_DAYS_MIN, max: RETENTION_DAYS_MAX },
-  orphanMinimumAgeMinutes: { variable: 'PARAXIA_ORPHAN_MIN_AGE_MINUTES', min: 0, max: 7 * 24 * 60 },
+export const defaultStorageSettings: StorageSettings = {
+  retentionDefaultDays: numericSettings.PARAXIA_RETENTION_DAYS.default,
+  orphanMinimumAgeMinutes: numericSettings.PARAXIA_ORPHAN_MIN_AGE_MINUTES.default,
 };
 
-/** Reads PARAXIA_RETENTION_DAYS (default 365) and PARAXIA_ORPHAN_MIN_AGE_MINUTES (default 60); unset or empty means the default. */
-export function readStorageSettings(source: Record<string, string | undefined> = process.env): StorageSettings {
-  const settings = { ...defaultStorageSettings };
-  for (const [key, { variable, min, max }] of Object.entries(VARIABLES) as [keyof StorageSettings, (typeof VARIABLES)[keyof StorageSettings]][]) {
-    const raw = source[variable];
-    if (raw === undefined || raw.trim() === '') continue;
-    const value = Number(raw);
-    if (!Number.isInteger(value) || value < min || value > max) {
-      throw new Error(`${variable} must be a whole number from ${min} to ${max} (got ${JSON.stringify(raw)}).`);
-    }
-    settings[key] = value;
-  }
-  return settings;
+/** PARAXIA_RETENTION_DAYS (default 365) and PARAXIA_ORPHAN_MIN_AGE_MINUTES (default 60), checked by server/env.ts. */
+export function storageSettingsFromEnv(env: Pick<Env, 'PARAXIA_RETENTION_DAYS' | 'PARAXIA_ORPHAN_MIN_AGE_MINUTES'>): StorageSettings {
+  return { retentionDefaultDays: env.PARAXIA_RETENTION_DAYS, orphanMinimumAgeMinutes: env.PARAXIA_ORPHAN_MIN_AGE_MINUTES };
 }

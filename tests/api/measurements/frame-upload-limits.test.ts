@@ -4,7 +4,8 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { frames } from '../../../server/db/schema';
 import { CSRF_HEADER_NAME } from '../../../server/middleware/csrf';
-import { loadSweepContext, readFrameUploadSettings, storeFrameFromStream, sweepObjectPrefix } from '../../../server/services/frame-storage';
+import { parseEnv } from '../../../server/env';
+import { frameUploadSettingsFromEnv, loadSweepContext, storeFrameFromStream, sweepObjectPrefix } from '../../../server/services/frame-storage';
 import { signedInWithRoles, type SignedInSession } from '../../helpers/browser-session';
 import { createTestApp, type TestApp } from '../../helpers/test-app';
 import { createTestBench, createTestLens, createTestWorkOrder, finiteConjugateBody } from './bench-records';
@@ -12,14 +13,9 @@ import { readUploadFixture } from './upload-fixtures';
 
 const PNG_SIGNATURE = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
 
-/** Each app reads PARAXIA_FRAME_MAX_BYTES when it is built; this file owns its process (vitest forks). */
+/** Each app takes PARAXIA_FRAME_MAX_BYTES from its own environment when it is built. */
 function appWithByteLimit(maxBytes: number): TestApp {
-  process.env.PARAXIA_FRAME_MAX_BYTES = String(maxBytes);
-  try {
-    return createTestApp();
-  } finally {
-    delete process.env.PARAXIA_FRAME_MAX_BYTES;
-  }
+  return createTestApp({ env: { PARAXIA_FRAME_MAX_BYTES: String(maxBytes) } });
 }
 
 let multipartLimitApp: TestApp;
@@ -95,14 +91,14 @@ describe('frame size limit', () => {
   });
 });
 
-describe('readFrameUploadSettings', () => {
+describe('frameUploadSettingsFromEnv', () => {
   it('defaults to 80 MiB and 60 MP and reads the variables', () => {
-    expect(readFrameUploadSettings({})).toEqual({ maxBytes: 80 * 1024 * 1024, maxPixels: 60_000_000 });
-    expect(readFrameUploadSettings({ PARAXIA_FRAME_MAX_BYTES: '1000', PARAXIA_FRAME_MAX_PIXELS: ' ' })).toEqual({ maxBytes: 1000, maxPixels: 60_000_000 });
+    expect(frameUploadSettingsFromEnv(parseEnv({}))).toEqual({ maxBytes: 80 * 1024 * 1024, maxPixels: 60_000_000 });
+    expect(frameUploadSettingsFromEnv(parseEnv({ PARAXIA_FRAME_MAX_BYTES: '1000', PARAXIA_FRAME_MAX_PIXELS: ' ' }))).toEqual({ maxBytes: 1000, maxPixels: 60_000_000 });
   });
 
-  it('throws a sentence naming a bad variable', () => {
-    expect(() => readFrameUploadSettings({ PARAXIA_FRAME_MAX_BYTES: '80MB' })).toThrow(
+  it('is never reached with a bad variable: parseEnv names it in a sentence', () => {
+    expect(() => parseEnv({ PARAXIA_FRAME_MAX_BYTES: '80MB' })).toThrow(
       'PARAXIA_FRAME_MAX_BYTES must be a whole number from 1 to 1073741824 (got "80MB").',
     );
   });

@@ -19,15 +19,8 @@ let strayOrganisationKey: string;
 
 beforeAll(async () => {
   usualApp = createTestApp();
-  // The handlers read the setting when the app is built; only the second app sees 0.
-  const previous = process.env.PARAXIA_ORPHAN_MIN_AGE_MINUTES;
-  process.env.PARAXIA_ORPHAN_MIN_AGE_MINUTES = '0';
-  try {
-    anyAgeApp = createTestApp();
-  } finally {
-    if (previous === undefined) delete process.env.PARAXIA_ORPHAN_MIN_AGE_MINUTES;
-    else process.env.PARAXIA_ORPHAN_MIN_AGE_MINUTES = previous;
-  }
+  // The handlers take the setting from the app's environment when it is built; only the second app sees 0.
+  anyAgeApp = createTestApp({ env: { PARAXIA_ORPHAN_MIN_AGE_MINUTES: '0' } });
   [usualAdmin, admin] = await Promise.all([signedInWithRoles(usualApp, ['admin']), signedInWithRoles(anyAgeApp, ['admin'])]);
   place = await createStoredOrganisation(usualApp.deps, [[{ status: 'certified', frameCount: 2, certificateIssuedDaysAgo: [3] }]]);
   const measurement = place.workOrders[0].measurements[0];

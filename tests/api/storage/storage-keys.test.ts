@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { formatStorageBytes } from '../../../shared/schemas/storage';
 import { classifyObjectKey } from '../../../server/services/storage/classify-object-key';
-import { readStorageSettings } from '../../../server/services/storage/storage-settings';
+import { parseEnv } from '../../../server/env';
+import { storageSettingsFromEnv } from '../../../server/services/storage/storage-settings';
 
 const ORG = '11111111-2222-4333-8444-555555555555';
 const WO = '21111111-2222-4333-8444-555555555555';
@@ -41,10 +42,10 @@ describe('formatStorageBytes', () => {
   });
 });
 
-describe('readStorageSettings', () => {
-  it('takes defaults for unset variables and names the variable when one is wrong', () => {
-    expect(readStorageSettings({})).toEqual({ retentionDefaultDays: 365, orphanMinimumAgeMinutes: 60 });
-    expect(readStorageSettings({ PARAXIA_RETENTION_DAYS: '90', PARAXIA_ORPHAN_MIN_AGE_MINUTES: '0' })).toEqual({ retentionDefaultDays: 90, orphanMinimumAgeMinutes: 0 });
-    expect(() => readStorageSettings({ PARAXIA_RETENTION_DAYS: '0' })).toThrow('PARAXIA_RETENTION_DAYS must be a whole number from 1 to 36500 (got "0").');
+describe('storageSettingsFromEnv', () => {
+  it('takes defaults for unset variables and the checked values of set ones', () => {
+    expect(storageSettingsFromEnv(parseEnv({}))).toEqual({ retentionDefaultDays: 365, orphanMinimumAgeMinutes: 60 });
+    expect(storageSettingsFromEnv(parseEnv({ PARAXIA_RETENTION_DAYS: '90', PARAXIA_ORPHAN_MIN_AGE_MINUTES: '0' }))).toEqual({ retentionDefaultDays: 90, orphanMinimumAgeMinutes: 0 });
+    expect(() => parseEnv({ PARAXIA_RETENTION_DAYS: '0' })).toThrow('PARAXIA_RETENTION_DAYS must be a whole number from 1 to 36500 (got "0").');
   });
 });
