@@ -42,9 +42,29 @@ const CELL_PAD_X = 4;
 
 interface Column {
   header: string;
+  /** Relative width; the table scales all widths to the content width. */
   width: number;
   align?: 'left' | 'right';
+  /**
+   * Cells that must stay on one line (a number with its unit, an identifier):
+   * the column widens to its widest cell, taking the room from the column
+   * that `gives` (else the first), which holds words and wraps well. The
+   * header may still wrap.
+   */
+  nowrap?: boolean;
+  gives?: boolean;
 }
+
+interface TableOptions {
+  /** Height of what follows the table and must stay on the page with its last two rows (a summary line). */
+  keepWithNext?: number;
+}
+
+/** The column that gives room keeps at least this share of its width when nowrap columns widen. */
+const GIVING_COLUMN_MIN_SHARE = 0.6;
+/** A page break leaves at least this many rows before it and after it (orphans and widows). */
+const ROWS_BEFORE_BREAK = 3;
+const ROWS_AFTER_BREAK = 2;
 
 type Decision = CertificateData['conformity']['decision'];
 
@@ -193,9 +213,29 @@ class CertificateComposer {
     }
   }
 
-  private columnWidths(columns: Column[]): number[] {
+  private columnWidths(columns: Column[], rows: Segment[][][]): number[] {
     const scale = CONTENT_WIDTH / columns.reduce((sum, c) => sum + c.width, 0);
-    return columns.map((c) => c.width * scale);
+    const widths = columns.map((c) => c.width * scale);
+    const giving = Math.max(0, columns.findIndex((c) => c.gives));
+    let spare = widths[giving] * (1 - GIVING_COLUMN_MIN_SHARE);
+    columns.forEach((column, i) => {
+      if (!column.nowrap || i === giving) return;
+      const needed = Math.max(0, ...rows.map((row) => this.ts.widthOf(row[i]))) + 2 * CELL_PAD_X + 0.5;
+      const extra = Math.min(Math.max(0, needed - widths[i]), spare);
+      widths[i] += extra;
+      widths[giving] -= extra;
+      spare -= extra;
+    });
+    return widths;
+  }
+
+  /** Height of the header and the rows a page break may not separate from the table's heading. */
+  private tableLeadHeight(columns: Column[], rows: Segment[][][], options: TableOptions = {}): number {
+    const widths = this.columnWidths(columns, rows);
+    const headerHeight = this.rowHeight(columns.map((c) => [seg(c.header, { ...styles.label, size: 7.4 })]), widths);
+    const wholeTable = rows.length <= ROWS_BEFORE_BREAK + ROWS_AFTER_BREAK - 1;
+    const lead = rows.slice(0, wholeTable ? rows.length : ROWS_BEFORE_BREAK).reduce((sum, row) => sum + this.rowHeight(row, widths), 0);
+    return headerHeight + lead + (wholeTable ? (options.keepWithNext ?? 0) : 0);
   }
 
   private rowHeight(row: Segment[][], widths: number[]): number {
@@ -204,13 +244,16 @@ class CertificateComposer {
 
   /**
    * A table whose header repeats on each page. A page break never leaves fewer
-   * than three rows before it or fewer than two after it (orphans and widows).
+   * than three rows before it or fewer than two after it (orphans and widows),
+   * and `keepWithNext` stays on the page of the last row.
    */
-  private table(columns: Column[], rows: Segment[][][]): void {
-    const widths = this.columnWidths(columns);
+  private table(columns: Column[], rows: Segment[][][], options: TableOptions = {}): void {
+    const widths = this.columnWidths(columns, rows);
     const headerCells = columns.map((c) => [seg(c.header, { ...styles.label, size: 7.4 })]);
     const headerHeight = this.rowHeight(headerCells, widths);
-    const rowHeights = rows.map((row) => this.rowHeight(row, widths));
+    const drawnHeights = rows.map((row) => this.rowHeight(row, widths));
+    // For page breaks only: the last row carries what must follow it on the same page.
+    const rowHeights = drawnHeights.map((h, i) => (i === rows.length - 1 ? h + (options.keepWithNext ?? 0) : h));
     const header = () => {
       let x = LEFT;
       headerCells.forEach((cell, i) => {
@@ -227,8 +270,8 @@ class CertificateComposer {
       bottom += rowHeights[i];
       if (bottom > CONTENT_BOTTOM) firstBreak = i;
     }
-    if (firstBreak >= 0 && rows.length - firstBreak < 2) firstBreak = rows.length - 2;
-    if (firstBreak >= 0 && firstBreak < Math.min(3, rows.length)) {
+    if (firstBreak >= 0 && rows.length - firstBreak < ROWS_AFTER_BREAK) firstBreak = rows.length - ROWS_AFTER_BREAK;
+    if (firstBreak >= 0 && firstBreak < Math.min(ROWS_BEFORE_BREAK, rows.length)) {
       this.newPage();
       firstBreak = -1;
     }
@@ -244,7 +287,7 @@ class CertificateComposer {
         this.cell(cell, x + CELL_PAD_X, this.y + CELL_PAD_Y, widths[i] - 2 * CELL_PAD_X, columns[i].align ?? 'left');
         x += widths[i];
       });
-      this.y += rowHeights[r];
+      this.y += drawnHeights[r];
       this.ts.rule(LEFT, RIGHT, this.y, ink.hairline, 0.4);
     });
     this.y += 4;
@@ -525,18 +568,18 @@ class CertificateComposer {
   private uncertaintyBudget(): void {
     const budget = this.data.results.uncertaintyBudget;
     const columns: Column[] = [
-      { header: 'Source of uncertainty', width: 132 },
-      { header: 'Value', width: 78, align: 'right' },
-      { header: 'Standard uncertainty', width: 72, align: 'right' },
-      { header: 'Degrees of freedom', width: 56, align: 'right' },
-      { header: 'Sensitivity coefficient', width: 82, align: 'right' },
-      { header: 'Contribution', width: 66, align: 'right' },
-      { header: 'Share of variance', width: 48, align: 'right' },
+      { header: 'Source of uncertainty', width: 124 },
+      { header: 'Value', width: 66, align: 'right', nowrap: true },
+      { header: 'Standard uncertainty', width: 62, align: 'right', nowrap: true },
+      { header: 'Degrees of freedom', width: 50, align: 'right', nowrap: true },
+      { header: 'Sensitivity coefficient', width: 68, align: 'right', nowrap: true },
+      { header: 'Contribution', width: 64, align: 'right', nowrap: true },
+      { header: 'Share of variance', width: 44, align: 'right', nowrap: true },
     ];
     const rows = budget.map((row): Segment[][] => {
       const sensitivityUnit = row.unit === 'mm' ? '' : row.unit ? `mm/${row.unit}` : 'mm';
       return [
-        [words(row.source)],
+        [words(keepLabelNumbers(row.source))],
         quantity(row.standardUncertainty > 0 ? formatMeasuredValue({ value: row.value, uncertainty: row.standardUncertainty }).valueText : formatAsGiven(row.value), row.unit),
         quantity(row.standardUncertainty > 0 ? formatSignificant(row.standardUncertainty, 2) : '0', row.unit),
         [seg(row.degreesOfFreedom === null || row.degreesOfFreedom === Infinity ? 'inf.' : String(Math.floor(row.degreesOfFreedom)), styles.number)],
@@ -545,18 +588,17 @@ class CertificateComposer {
         quantity(formatAtDecimals(row.varianceShare * 100, 1), '%'),
       ];
     });
-    this.section('Uncertainty budget', 50);
-    this.table(columns, rows);
     const { results } = this.data;
     const u = formatSignificant(results.standardUncertaintyMm, 2);
-    this.paragraph(
-      [
-        seg('Combined standard uncertainty u(f) = ', styles.body),
-        ...quantity(u, 'mm'),
-        seg('. Contribution = |sensitivity coefficient| × standard uncertainty, in mm. "inf." marks an input whose standard uncertainty is taken as exactly known (Type B, infinite degrees of freedom).', styles.body),
-      ],
-      4,
-    );
+    const summary = [
+      seg('Combined standard uncertainty u(f) = ', styles.body),
+      ...quantity(u, 'mm'),
+      seg('. Contribution = |sensitivity coefficient| × standard uncertainty, in mm. "inf." marks an input whose standard uncertainty is taken as exactly known (Type B, infinite degrees of freedom).', styles.body),
+    ];
+    const summaryHeight = this.ts.heightOf(summary, CONTENT_WIDTH) + 6;
+    this.section('Uncertainty budget', this.tableLeadHeight(columns, rows, { keepWithNext: summaryHeight }));
+    this.table(columns, rows, { keepWithNext: summaryHeight });
+    this.paragraph(summary, 4);
   }
 
   // ---------- conformity, equipment, people ----------
@@ -600,10 +642,11 @@ class CertificateComposer {
     this.table(
       [
         { header: 'Kind', width: 62 },
-        { header: 'Identifier', width: 54 },
-        { header: 'Description', width: 194 },
-        { header: 'Calibration reference', width: 94 },
-        { header: 'Calibration due', width: 76, align: 'right' },
+        // Room for 16 monospaced characters, the usual register identifier ("CAM-794f/cfa4fe").
+        { header: 'Identifier', width: 92, nowrap: true },
+        { header: 'Description', width: 150, gives: true },
+        { header: 'Calibration reference', width: 100, nowrap: true },
+        { header: 'Calibration due', width: 76, align: 'right', nowrap: true },
       ],
       equipment.map((entry) => [
         [words(equipmentKindNames[entry.kind])],
@@ -680,6 +723,11 @@ class CertificateComposer {
     this.ts.paragraph([seg(verificationInstruction('the address above or by scanning the code.'), styles.small)], tx, top + 58, RIGHT - tx - 10);
     this.y = top + height + 6;
   }
+}
+
+/** No line break inside "sweep 1" or "position 2" when a budget source wraps. */
+function keepLabelNumbers(text: string): string {
+  return text.replace(/\b(sweep|position) (\d+)/gi, '$1\u00A0$2');
 }
 
 /** No line break between a number and its unit ("0.01 mm" stays on one line). */

@@ -44,7 +44,7 @@ export function finiteConjugateBudget(): BudgetRow[] {
     budgetRow('Object position reading', 200.0, 'mm', 0.029, Infinity, -0.1109),
     budgetRow('Lens reference mark reading', 500.0, 'mm', 0.029, Infinity, -0.6203),
     budgetRow('Best focus (curve fit)', 652.314, 'mm', 0.0118, 17, 0.6203),
-    budgetRow('Rail reading at best focus', 0, 'mm', 0.029, Infinity, 0.6203),
+    budgetRow('Rail reading error at best focus', 0, 'mm', 0.029, Infinity, 0.6203),
     budgetRow('Pixel pitch', 3.45, 'µm', 0.0035, Infinity, -9.71),
     budgetRow('Target size (dot spacing)', 20.0, 'mm', 0.008, Infinity, 1.674),
     budgetRow('Image size at best focus', 2914.6, 'px', 0.85, 12, 0.0207),
@@ -220,4 +220,33 @@ export function makeDisplacementData(): CertificateData {
       ],
     },
   };
+}
+
+/**
+ * The revision-1 data with a budget of `rowCount` rows: the finite-conjugate
+ * rows, then rail-reading error inputs of further sweeps (0.020 mm × 0.036 =
+ * 0.00072 mm each), so the budget ends lower on its page as the count grows;
+ * and register-style identifiers of 15 and 16 characters. u(f), U and the
+ * variance shares are recomputed.
+ */
+export function makeBudgetData(rowCount: number): CertificateData {
+  const data = makeCertificateData();
+  const base = finiteConjugateBudget();
+  const extra = Array.from({ length: Math.max(0, rowCount - base.length) }, (_, i) =>
+    budgetRow(`rail reading error at best focus, sweep ${i + 2}`, 0, 'mm', 0.02, Infinity, 0.036),
+  );
+  const rows = [...base, ...extra].slice(0, rowCount);
+  const variance = rows.reduce((sum, r) => sum + r.contributionMm ** 2, 0);
+  const standardUncertaintyMm = Math.sqrt(variance);
+  const expandedUncertaintyMm = coverageFactor * standardUncertaintyMm;
+  data.results = {
+    ...data.results,
+    standardUncertaintyMm,
+    expandedUncertaintyMm,
+    opticalPowerExpandedUncertaintyDioptres: (1000 * expandedUncertaintyMm) / focalLengthMm ** 2,
+    uncertaintyBudget: rows.map((r) => ({ ...r, varianceShare: r.contributionMm ** 2 / variance })),
+  };
+  data.equipment[0] = { ...data.equipment[0], identifier: 'CAM-794f/cfa4fe' };
+  data.equipment[2] = { ...data.equipment[2], identifier: 'RAIL-7b87/f39ed3' };
+  return data;
 }

@@ -10,7 +10,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { renderCertificatePdf } from '../../server/certificates/render-certificate-pdf';
 import type { CertificateData } from '../../server/certificates/certificate-data';
 import { sha256Hex } from '../../server/certificates/verification-code';
-import { makeCertificateData, makeDisplacementData, makeMultiConjugateData, makeRevisionTwoData } from './certificate-fixture';
+import { makeBudgetData, makeCertificateData, makeDisplacementData, makeMultiConjugateData, makeRevisionTwoData } from './certificate-fixture';
 import { flowText, pdfPageCount, pdfPagesText, runPoppler } from './poppler';
 
 const outputFolder = '/tmp/paraxia-cert';
@@ -313,5 +313,33 @@ describe('renderCertificatePdf', () => {
     const text = flowText(pdfPagesText((await renderAndRead('certificate-outside', outside)).pdfPath).join('\n'));
     expect(text).toContain('Does not conform. The measured focal length 101.40 mm lies outside the tolerance limits 99.00 mm to 101.00 mm.');
     expect(text).toContain('Decision rule Simple acceptance');
+  });
+
+  it('renderCertificatePdf keeps a budget number with its unit and a 16-character equipment identifier each on one line', async () => {
+    const rendered = await renderAndRead('certificate-long-budget', makeBudgetData(10));
+    const lines = rendered.text.split('\n');
+    const contributionLines = lines.filter((line) => /^\s*rail reading error at/.test(line));
+    expect(contributionLines).toHaveLength(3);
+    for (const line of contributionLines) expect(line).toMatch(/0\.00072 mm\s+\S+ %/);
+    expect(lines.some((line) => line.includes('CAM-794f/cfa4fe'))).toBe(true);
+    expect(lines.some((line) => line.includes('RAIL-7b87/f39ed3'))).toBe(true);
+  });
+
+  it('renderCertificatePdf never leaves the combined standard uncertainty on a page without the budget’s last two rows', async () => {
+    const budgetRowLine = / mm\s+\d+\.\d %\s*$/;
+    const summaryPages = new Set<number>();
+    for (let rowCount = 1; rowCount <= 20; rowCount += 1) {
+      const pdfPath = path.join(outputFolder, 'certificate-budget-break.pdf');
+      writeFileSync(pdfPath, await renderCertificatePdf(makeBudgetData(rowCount)));
+      const pages = pdfPagesText(pdfPath);
+      const rowsPerPage = pages.map((page) => page.split('\n').filter((line) => budgetRowLine.test(line)).length);
+      const summaryPage = pages.findIndex((page) => page.includes('Combined standard uncertainty u(f)'));
+      summaryPages.add(summaryPage);
+      expect(rowsPerPage.reduce((a, b) => a + b, 0), `${rowCount} rows`).toBe(rowCount);
+      expect(rowsPerPage[summaryPage], `${rowCount} rows`).toBeGreaterThanOrEqual(Math.min(2, rowCount));
+      expect(rowsPerPage.slice(summaryPage + 1).every((n) => n === 0), `${rowCount} rows`).toBe(true);
+    }
+    // The counts must carry the budget's end across a page boundary, or the check proves nothing.
+    expect(summaryPages.size).toBeGreaterThan(1);
   });
 });

@@ -2,17 +2,17 @@
  * CertificateData for a measurement, read from the database inside the
  * issuing transaction: the lab, the client, the work order, the lens, the
  * method, equipment with calibration references and recorded overrides,
- * environment, the current analysis run's result, the conformity decision
- * under the work order's rule, who performed and who authorised.
+ * environment, the current analysis run's result with the conformity
+ * decision it holds (the one the reviewer approved), who performed and who
+ * authorised.
  */
 import { and, asc, eq, inArray } from 'drizzle-orm';
-import { decideConformity } from '../../../shared/measure/conformity/decide-conformity';
-import { toleranceLimits } from '../../../shared/measure/conformity/tolerance-limits';
 import type { MeasurementResult, SweepResult } from '../../../shared/schemas/measurement-result';
 import type { CertificateData } from '../../certificates/certificate-data';
 import { analysisRuns, equipment, lenses, measurements, organisationContacts, organisations, people, workOrders } from '../../db/schema';
 import { invariant } from '../../invariant';
 import type { Queryable } from '../numbering';
+import { analysedLensSpecificationDifference } from '../review/analysed-lens-specification';
 import { FALLBACK_LAB_NAME, LAB_IDENTITY } from './lab-identity';
 
 type Sweep = CertificateData['results']['sweeps'][number];
@@ -85,6 +85,14 @@ export async function buildCertificateData(tx: Queryable, measurementId: string,
   const [run] = await tx.select().from(analysisRuns).where(and(eq(analysisRuns.id, m.currentAnalysisId), eq(analysisRuns.status, 'succeeded')));
   invariant(run?.result, `measurement ${m.number}'s current analysis has a result`);
   const result = run.result as unknown as MeasurementResult;
+  // Submission refuses a run analysed against another specification, and the specification locks from then on.
+  const difference = analysedLensSpecificationDifference(run.manifest, lens, workOrder.decisionRule);
+  invariant(
+    difference === null || difference === 'decision-rule',
+    `measurement ${m.number}'s analysis v${run.version} was analysed against the lens specification its lens row holds (${difference})`,
+  );
+  const conformity = result.conformity;
+  invariant(conformity, `measurement ${m.number}'s analysis v${run.version} holds a conformity decision`);
 
   const personIds = [m.performedById, m.approvedById, ...m.equipmentOverrides.map((o) => o.recordedById)].filter((id): id is string => Boolean(id));
   const personRows = await tx.select({ id: people.id, name: people.name, organisationId: people.organisationId }).from(people).where(inArray(people.id, personIds));
@@ -108,14 +116,6 @@ export async function buildCertificateData(tx: Queryable, measurementId: string,
 
   const measuredOn = m.measuredOn ?? isoDate(run.finishedAt ?? run.createdAt);
   const approvedOn = isoDate(m.approvedAt);
-  const limits = toleranceLimits({ nominalFocalLengthMm: lens.nominalFocalLengthMm, tolerancePercent: lens.tolerancePercent ?? undefined, toleranceMm: lens.tolerancePercent === null ? (lens.toleranceMm ?? undefined) : undefined });
-  const decided = decideConformity({
-    measuredValue: result.focalLengthMm,
-    expandedUncertainty: result.expandedUncertaintyMm,
-    lowerLimit: limits.lowerLimit,
-    upperLimit: limits.upperLimit,
-    rule: workOrder.decisionRule,
-  });
   const f = result.focalLengthMm;
   const dof = result.effectiveDegreesOfFreedom;
 
@@ -187,7 +187,8 @@ export async function buildCertificateData(tx: Queryable, measurementId: string,
         varianceShare: r.varianceShare,
       })),
     },
-    conformity: { rule: workOrder.decisionRule, decision: decided.decision, lowerLimitMm: limits.lowerLimit, upperLimitMm: limits.upperLimit },
+    // The decision as analysed and approved; the work order's rule may have changed since (it is not locked), the result's has not.
+    conformity: { rule: conformity.rule, decision: conformity.decision, lowerLimitMm: conformity.lowerLimitMm, upperLimitMm: conformity.upperLimitMm },
     people: {
       performedBy: [{ name: (m.performedById && nameOf.get(m.performedById)) || 'not recorded', role: 'Bench technician', date: measuredOn }],
       authorisedBy: { name: approver?.name ?? 'not recorded', role: 'Reviewer', date: approvedOn },

@@ -78,7 +78,7 @@ function addSensorSweep(inputs: InputSet, manifest: MeasurementManifest, fit: Sw
       degreesOfFreedom: peak.focus.degreesOfFreedom,
       unit: 'mm',
     }),
-    focusRailMm: inputs.add({ name: `rail reading at best focus, ${name}`, value: 0, standardUncertainty: railU, unit: 'mm' }),
+    focusRailMm: inputs.add({ name: `rail reading error at best focus, ${name}`, value: 0, standardUncertainty: railU, unit: 'mm' }),
     sizePx: inputs.add({
       name: `target image size at best focus (line fit), ${name}`,
       value: peak.size.sizeAtBestFocusPx,
@@ -304,7 +304,7 @@ export function buildMethodModel(manifest: MeasurementManifest, fits: SweepFits[
             degreesOfFreedom: peak.focus.degreesOfFreedom,
             unit: 'mm',
           }),
-          rail: inputs.add({ name: `rail reading at sharp position ${k + 1}, ${name}`, value: 0, standardUncertainty: railU, unit: 'mm' }),
+          rail: inputs.add({ name: `rail reading error at sharp position ${k + 1}, ${name}`, value: 0, standardUncertainty: railU, unit: 'mm' }),
         }));
         return (v: number[]): number =>
           solveDisplacement({

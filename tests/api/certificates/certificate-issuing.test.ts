@@ -8,13 +8,15 @@ import path from 'node:path';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { formatMeasuredValue, formatPercent } from '../../../server/certificates/certificate-numbers';
+import { decisionRuleNames, decisionWords } from '../../../server/certificates/certificate-wording';
 import { sha256Hex } from '../../../server/certificates/verification-code';
-import { auditEvents, certificates, measurements, organisationContacts } from '../../../server/db/schema';
+import { auditEvents, certificates, measurements, organisationContacts, workOrders } from '../../../server/db/schema';
 import { CSRF_HEADER_NAME } from '../../../server/middleware/csrf';
 import { signedInWithRoles, type SignedInSession } from '../../helpers/browser-session';
 import { createTestOrganisation, uniqueSuffix } from '../../helpers/people';
 import { createTestApp, type TestApp } from '../../helpers/test-app';
 import { flowText, pdfPagesText, runPoppler } from '../../certificates/poppler';
+import { createTestLens, createTestWorkOrder } from '../measurements/bench-records';
 import { createReviewBench, stageMeasurement, type ReviewBench } from '../review/review-bench';
 
 let testApp: TestApp;
@@ -149,9 +151,14 @@ describe('the issued PDF, read back with pdftotext', () => {
     expect(flow).toContain(power.valueText);
   });
 
-  it('states the work order’s decision rule (guarded) and a conformity statement', () => {
+  it('states the work order’s decision rule (guarded) and the conformity decision the approved analysis result holds', () => {
     expect(flow).toContain('Guarded acceptance');
-    expect(flow).toMatch(/Conforms|Does not conform|Undecided/);
+    const analysed = bench.result.conformity;
+    expect(analysed?.rule).toBe('guarded');
+    expect(flow).toContain(`${decisionWords[analysed!.decision]}. `);
+    for (const other of Object.values(decisionWords).filter((word) => word !== decisionWords[analysed!.decision])) {
+      expect(flow).not.toContain(`${other}. `);
+    }
   });
 
   it('names who performed and who authorised it, the responsibility and safety footer, and the verification code', () => {
@@ -219,6 +226,23 @@ describe('reissue and download', () => {
     expect(detail.body.measurement.certificates.map((c: { revision: number }) => c.revision)).toEqual([2, 1]);
     expect(detail.body.measurement.number).toBe(measurementNumber);
   });
+});
+
+describe('the certificate states what was approved', () => {
+  it('keeps the analysed decision rule and decision when the work order’s rule changed after approval', async () => {
+    const { workOrder } = await createTestWorkOrder(testApp.deps);
+    const lens = await createTestLens(testApp.deps, workOrder.id, { nominalFocalLengthMm: bench.lens.nominalFocalLengthMm, tolerancePercent: bench.lens.tolerancePercent });
+    const staged = await stageMeasurement(testApp, { ...bench, lens }, { performedById: technician.person.id, status: 'analysed' });
+    expect((await post(technician, `/api/measurements/${staged.id}/submission`)).status).toBe(200);
+    expect((await post(reviewer, `/api/measurements/${staged.id}/approval`)).status).toBe(200);
+    await testApp.deps.db.update(workOrders).set({ decisionRule: 'simple' }).where(eq(workOrders.id, workOrder.id));
+    const issued = await post(admin, `/api/measurements/${staged.id}/certificates`);
+    expect(issued.status, JSON.stringify(issued.body)).toBe(201);
+    const text = flowText(readPdf('api-certificate-rule-changed', (await download(admin, issued.body.certificate.id)).body as Buffer).join('\n'));
+    expect(text).toContain(decisionRuleNames.guarded);
+    expect(text).not.toContain(decisionRuleNames.simple);
+    expect(text).toContain(`${decisionWords[bench.result.conformity!.decision]}. `);
+  }, 60_000);
 });
 
 describe('a failed issue leaves nothing behind', () => {

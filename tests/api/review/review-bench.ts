@@ -3,12 +3,18 @@
  * project's synthetic bench, small finite-conjugate sweep, measured once per
  * test file with measureFolder) is attached as the succeeded current
  * analysis of measurement rows inserted straight into the shared test
- * database. The transitions under test then run through the real API.
+ * database. The manifest it was measured with carries the bench lens's
+ * specification and the work order's decision rule, as engine-manifest.ts
+ * gives the worker, so the result's conformity is the lens's. The
+ * transitions under test then run through the real API.
  */
 import { eq } from 'drizzle-orm';
+import { analyseMeasurement } from '../../../shared/measure/engine/analyse-measurement';
+import type { MeasurementManifest } from '../../../shared/schemas/measurement-manifest';
 import type { MeasurementResult } from '../../../shared/schemas/measurement-result';
 import { analysisRuns, frames, measurements, sweeps, type MeasurementStatus } from '../../../server/db/schema';
-import { measureFolder } from '../../../server/measure/measure-folder';
+import { loadMeasurementFolder } from '../../../server/measure/load-measurement-folder';
+import { SharpFrameSource } from '../../../server/measure/sharp-frame-source';
 import { todayIsoDate } from '../../../server/services/equipment';
 import { cachedBenchMeasurement, type CachedBenchMeasurement } from '../../../scripts/synth/cached-bench-measurement';
 import { smallFiniteConjugate } from '../analysis/small-bench';
@@ -18,6 +24,8 @@ import type { TestApp } from '../../helpers/test-app';
 
 export interface ReviewBench {
   fixture: CachedBenchMeasurement;
+  /** The generated manifest with the bench lens's specification added, as analysed. */
+  analysedManifest: MeasurementManifest;
   result: MeasurementResult;
   equipment: TestBench;
   workOrder: Awaited<ReturnType<typeof createTestWorkOrder>>['workOrder'];
@@ -27,11 +35,15 @@ export interface ReviewBench {
 
 export async function createReviewBench(testApp: TestApp): Promise<ReviewBench> {
   const fixture = await cachedBenchMeasurement('finite-conjugate', (s) => smallFiniteConjugate(s));
-  const result = await measureFolder(fixture.folder, { concurrency: 2, monteCarloDraws: 20_000 });
   const { workOrder, organisation } = await createTestWorkOrder(testApp.deps);
   const lens = await createTestLens(testApp.deps, workOrder.id, { nominalFocalLengthMm: Math.round(fixture.truth.focalLengthMm), tolerancePercent: 2 });
   const equipment = await createTestBench(testApp.deps);
-  return { fixture, result, equipment, workOrder, organisation, lens };
+  const analysedManifest: MeasurementManifest = {
+    ...(await loadMeasurementFolder(fixture.folder)),
+    lens: { nominalFocalLengthMm: lens.nominalFocalLengthMm, tolerancePercent: lens.tolerancePercent ?? undefined, decisionRule: workOrder.decisionRule },
+  };
+  const result = await analyseMeasurement({ manifest: analysedManifest, source: new SharpFrameSource(fixture.folder), concurrency: 2, monteCarloDraws: 20_000 });
+  return { fixture, analysedManifest, result, equipment, workOrder, organisation, lens };
 }
 
 export interface StagedMeasurement {
@@ -101,7 +113,7 @@ export async function stageMeasurement(
       measurementId: row.id,
       version: 1,
       status: options.status === 'analysing' ? 'running' : hasResult ? 'succeeded' : 'failed',
-      manifest: { manifest: bench.fixture.manifest, files: [] },
+      manifest: { manifest: bench.analysedManifest, files: [] },
       result: hasResult && options.status !== 'analysing' ? (bench.result as unknown as Record<string, unknown>) : null,
       finishedAt: new Date(),
     })

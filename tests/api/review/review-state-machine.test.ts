@@ -5,12 +5,12 @@
  */
 import { and, eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { auditEvents, certificates, measurements, reviewEntries, type MeasurementStatus } from '../../../server/db/schema';
+import { analysisRuns, auditEvents, certificates, measurements, reviewEntries, workOrders, type MeasurementStatus } from '../../../server/db/schema';
 import { CSRF_HEADER_NAME } from '../../../server/middleware/csrf';
 import { signInAs, signedInWithRoles, type SignedInSession } from '../../helpers/browser-session';
 import { createTestPerson } from '../../helpers/people';
 import { createTestApp, type TestApp } from '../../helpers/test-app';
-import { createTestLens } from '../measurements/bench-records';
+import { createTestLens, createTestWorkOrder } from '../measurements/bench-records';
 import { createReviewBench, measurementStatusOf, stageMeasurement, type ReviewBench } from './review-bench';
 
 let testApp: TestApp;
@@ -178,6 +178,66 @@ describe('transitions leave a record', () => {
     expect((await post(sessions.client, `/api/measurements/${staged.id}/review-entries`, { body: 'hello' })).status).toBe(403);
     expect((await sessions.client.agent.get(`/api/measurements/${staged.id}/review-entries`)).status).toBe(403);
     expect((await post(sessions.reviewer, `/api/measurements/${staged.id}/review-entries`, { body: '' })).status).toBe(400);
+  });
+});
+
+describe('submission checks the analysis against the lens as it is now', () => {
+  async function stagedOnOwnLens(workOrder = bench.workOrder) {
+    // A lens of its own with the analysed specification, so editing it leaves other staged measurements alone.
+    const lens = await createTestLens(testApp.deps, workOrder.id, { nominalFocalLengthMm: bench.lens.nominalFocalLengthMm, tolerancePercent: bench.lens.tolerancePercent });
+    const staged = await stageMeasurement(testApp, { ...bench, lens }, { performedById: performer.person.id, status: 'analysed' });
+    return { lens, staged };
+  }
+
+  async function expectRefusedAndUnchanged(staged: Awaited<ReturnType<typeof stageMeasurement>>, message: string) {
+    const refused = await post(performer, actions.submit.path(staged.id));
+    expect(refused.status, JSON.stringify(refused.body)).toBe(409);
+    expect(refused.body.error.message).toBe(message);
+    expect(await measurementStatusOf(testApp, staged.id)).toBe('analysed');
+    expect(await testApp.deps.db.select().from(reviewEntries).where(eq(reviewEntries.measurementId, staged.id))).toHaveLength(0);
+  }
+
+  it('is refused (409) when the nominal focal length changed after the analysis, and nothing is written', async () => {
+    const { lens, staged } = await stagedOnOwnLens();
+    const edited = await sessions.technician.agent
+      .patch(`/api/lenses/${lens.id}`)
+      .set(CSRF_HEADER_NAME, sessions.technician.csrfToken)
+      .send({ nominalFocalLengthMm: lens.nominalFocalLengthMm + 5 });
+    expect(edited.status, JSON.stringify(edited.body)).toBeLessThan(300);
+    await expectRefusedAndUnchanged(staged, "The lens's nominal focal length or tolerance changed after analysis v1; run the analysis again before submitting.");
+  });
+
+  it('is refused (409) when the tolerance changed after the analysis', async () => {
+    const { lens, staged } = await stagedOnOwnLens();
+    const edited = await sessions.technician.agent.patch(`/api/lenses/${lens.id}`).set(CSRF_HEADER_NAME, sessions.technician.csrfToken).send({ tolerancePercent: 5 });
+    expect(edited.status, JSON.stringify(edited.body)).toBeLessThan(300);
+    await expectRefusedAndUnchanged(staged, "The lens's nominal focal length or tolerance changed after analysis v1; run the analysis again before submitting.");
+  });
+
+  it('is refused (409) when the work order’s decision rule changed after the analysis', async () => {
+    const { workOrder } = await createTestWorkOrder(testApp.deps);
+    expect(workOrder.decisionRule).toBe(bench.analysedManifest.lens?.decisionRule);
+    const { staged } = await stagedOnOwnLens(workOrder);
+    await testApp.deps.db.update(workOrders).set({ decisionRule: 'simple' }).where(eq(workOrders.id, workOrder.id));
+    await expectRefusedAndUnchanged(staged, "The work order's decision rule changed to simple after analysis v1; run the analysis again before submitting.");
+  });
+
+  it('is refused (409) when the analysis ran without the lens block', async () => {
+    const { staged } = await stagedOnOwnLens();
+    const { lens: _omitted, ...withoutLens } = bench.analysedManifest;
+    await testApp.deps.db.update(analysisRuns).set({ manifest: { manifest: withoutLens, files: [] } }).where(eq(analysisRuns.id, staged.analysisRunId));
+    await expectRefusedAndUnchanged(
+      staged,
+      "Analysis v1 was run without the lens's nominal focal length and tolerance, so it holds no conformity decision; run the analysis again before submitting.",
+    );
+  });
+
+  it('goes through (200) when only the lens description changed after the analysis', async () => {
+    const { lens, staged } = await stagedOnOwnLens();
+    const edited = await sessions.technician.agent.patch(`/api/lenses/${lens.id}`).set(CSRF_HEADER_NAME, sessions.technician.csrfToken).send({ description: 'Plano-convex singlet, AR coated' });
+    expect(edited.status, JSON.stringify(edited.body)).toBeLessThan(300);
+    expect((await post(performer, actions.submit.path(staged.id))).status).toBe(200);
+    expect(await measurementStatusOf(testApp, staged.id)).toBe('submitted');
   });
 });
 

@@ -131,7 +131,14 @@ export function MeasurementRoute() {
         <PageHeader
           kicker={`Measurement · ${requirements.name}`}
           title={`${measurement.lens.identifier} — ${measurement.number}`}
-          actions={<MeasurementStatusMark status={measurement.status} />}
+          actions={
+            <dl className="text-right">
+              <dt className="text-caption font-semibold uppercase tracking-wider text-ink-faint">Status</dt>
+              <dd className="mt-1">
+                <MeasurementStatusMark status={measurement.status} plain />
+              </dd>
+            </dl>
+          }
         >
           {measurement.lens.description || 'Lens under test'} · nominal{' '}
           <span className="numerals text-ink">{measurement.lens.nominalFocalLengthMm}</span> <span className="font-light text-ink-faint">mm</span>

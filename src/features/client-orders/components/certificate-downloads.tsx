@@ -15,15 +15,23 @@ export function CertificateDownloads({ revisions }: { revisions: PortalCertifica
         <a
           href={current.downloadUrl}
           download
-          className="inline-flex items-center gap-2 rounded-sheet border border-ink bg-sheet px-2.5 py-1 text-small font-medium text-ink shadow-sheet hover:bg-shade"
+          // The column is narrow at laptop widths; the visible label is short and the accessible name says it in full.
+          aria-label={`Certificate ${current.number} rev. ${current.revision} (PDF)`}
+          title={`Download certificate ${current.number}, revision ${current.revision}, as PDF`}
+          className="inline-flex items-center gap-1.5 whitespace-nowrap rounded-sheet border border-ink bg-sheet px-2.5 py-1 text-small font-medium text-ink shadow-sheet hover:bg-shade"
           data-certificate-revision={current.revision}
         >
-          <svg viewBox="0 0 16 16" aria-hidden="true" className="size-3.5">
+          <svg viewBox="0 0 16 16" aria-hidden="true" className="size-3.5 shrink-0">
             <path d="M8 2v8M4.5 6.8 8 10.3l3.5-3.5M3 13h10" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" />
           </svg>
+          <span className="numerals">{current.number}</span>
           <span>
-            Certificate <span className="numerals">{current.number}</span> rev. <span className="numerals">{current.revision}</span> (PDF)
+            rev. <span className="numerals">{current.revision}</span>
           </span>
+          <span aria-hidden="true" className="text-ink-faint">
+            ·
+          </span>
+          <span>PDF</span>
         </a>
       ) : null}
       {superseded.length > 0 ? (

@@ -46,10 +46,12 @@ function StatusGlyph({ status }: { status: MeasurementStatus }) {
       );
       break;
     case 'submitted':
+      // An hourglass: waiting on a second person (a tray with an arrow read as a download button).
       drawing = (
         <>
-          <path d="M2 9.5v4h12v-4" {...common} />
-          <path d="M8 2v8M5 7l3 3 3-3" {...common} />
+          <path d="M4.2 1.8h7.6M4.2 14.2h7.6" {...common} />
+          <path d="M5.4 1.8v1.7c0 1.7 2.6 2.8 2.6 4.5s-2.6 2.8-2.6 4.5v1.7M10.6 1.8v1.7c0 1.7-2.6 2.8-2.6 4.5s2.6 2.8 2.6 4.5v1.7" {...common} />
+          <path d="M6.5 13.2 8 11.4l1.5 1.8Z" fill="currentColor" />
         </>
       );
       break;
@@ -86,13 +88,19 @@ const LOOK: Partial<Record<MeasurementStatus, string>> = {
   returned: 'border-undecided/40 bg-undecided-tint text-undecided',
 };
 
-/** A measurement's status by word and its own outline; only the two that need action carry a tint. */
-export function MeasurementStatusMark({ status, size = 'md' }: { status: MeasurementStatus; size?: 'sm' | 'md' }) {
-  const look = LOOK[status] ?? 'border-rule-strong bg-sheet text-ink';
+/**
+ * A measurement's status by word and its own outline; only the two that need
+ * action carry a tint. `plain` drops the frame of the others, for a page
+ * header where a framed word would sit among buttons and read as one.
+ */
+export function MeasurementStatusMark({ status, size = 'md', plain = false }: { status: MeasurementStatus; size?: 'sm' | 'md'; plain?: boolean }) {
+  const framed = !plain || LOOK[status] !== undefined;
+  const look = LOOK[status] ?? (framed ? 'border-rule-strong bg-sheet text-ink' : 'border-transparent text-ink');
+  const padding = !framed ? '' : size === 'sm' ? 'px-1.5' : 'px-2';
   return (
     <span
-      className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded-hair border font-medium ${look} ${
-        size === 'sm' ? 'px-1.5 py-px text-caption' : 'px-2 py-0.5 text-small'
+      className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded-hair border font-medium ${look} ${padding} ${
+        size === 'sm' ? 'py-px text-caption' : 'py-0.5 text-small'
       }`}
       data-status={status}
     >
