@@ -30,6 +30,8 @@ export async function runSignedInLoad(options: {
   durationSeconds: number;
   /** Picks the next path (with query) for a request. */
   nextPath: () => string;
+  /** Each person's pace; absent, each sends its next request as soon as the last is answered (saturation). */
+  requestsPerSecondPerUser?: number;
 }): Promise<LoadPhaseResult> {
   const latenciesMs: number[] = [];
   const latenciesByKind = new Map<string, number[]>();
@@ -40,9 +42,11 @@ export async function runSignedInLoad(options: {
     inFlight.push(path);
     return path;
   };
+  // Paced people start spread over one interval, as people do; started together, their timers would fire in step and queue behind each other.
+  const startGapMs = options.requestsPerSecondPerUser ? 1000 / options.requestsPerSecondPerUser / options.sessions.length : 0;
   const runs = options.sessions.map(
-    (session) =>
-      new Promise<autocannon.Result>((resolve, reject) => {
+    (session, index) =>
+      new Promise<autocannon.Result>((resolve, reject) => setTimeout(() => {
         // One connection without pipelining: answers come back in the order the paths were chosen.
         const pathsInFlight: string[] = [];
         const instance = autocannon(
@@ -51,6 +55,7 @@ export async function runSignedInLoad(options: {
             connections: 1,
             duration: options.durationSeconds,
             timeout: 10,
+            ...(options.requestsPerSecondPerUser ? { overallRate: options.requestsPerSecondPerUser } : {}),
             headers: { cookie: session.cookie, accept: 'application/json' },
             requests: [{ method: 'GET', setupRequest: (request) => ({ ...request, path: choose(pathsInFlight) }) }],
           },
@@ -63,7 +68,7 @@ export async function runSignedInLoad(options: {
           latenciesByKind.get(kind)!.push(responseTimeMs);
           statusCounts[statusCode] = (statusCounts[statusCode] ?? 0) + 1;
         });
-      }),
+      }, index * startGapMs)),
   );
   const results = await Promise.all(runs);
   for (const result of results) failures += result.errors + result.timeouts + result.non2xx;
