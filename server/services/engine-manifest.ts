@@ -58,6 +58,14 @@ export function sweepFolder(position: number): string {
  * naming the sweep when a frame in use lacks a reading or a sweep has fewer
  * than 5 frames in use with readings.
  */
+/** The manifest takes one tolerance; a lens given both in % and in mm must meet both, so the tighter one is the band. */
+export function engineToleranceOf(lens: { nominalFocalLengthMm: number; tolerancePercent: number | null; toleranceMm: number | null }): { tolerancePercent: number } | { toleranceMm: number } {
+  if (lens.tolerancePercent === null) return { toleranceMm: lens.toleranceMm! };
+  if (lens.toleranceMm === null) return { tolerancePercent: lens.tolerancePercent };
+  const percentAsMm = (Math.abs(lens.nominalFocalLengthMm) * lens.tolerancePercent) / 100;
+  return lens.toleranceMm < percentAsMm ? { toleranceMm: lens.toleranceMm } : { tolerancePercent: lens.tolerancePercent };
+}
+
 export async function buildEngineManifest(db: Queryable, measurementId: string): Promise<EngineManifest> {
   const [row] = await db
     .select({ measurement: measurements, lens: lenses, decisionRule: workOrders.decisionRule })
@@ -132,8 +140,7 @@ export async function buildEngineManifest(db: Queryable, measurementId: string):
     sweeps: manifestSweeps,
     lens: {
       nominalFocalLengthMm: row.lens.nominalFocalLengthMm,
-      ...(row.lens.tolerancePercent !== null ? { tolerancePercent: row.lens.tolerancePercent } : {}),
-      ...(row.lens.toleranceMm !== null ? { toleranceMm: row.lens.toleranceMm } : {}),
+      ...engineToleranceOf(row.lens),
       decisionRule: row.decisionRule,
     },
     analysis: { focusOperator: m.focusOperator, excludedFiles },

@@ -5,6 +5,7 @@
  * because the nominal value and tolerance lock only from submission on.
  */
 import type { DecisionRule } from '../../db/schema';
+import { engineToleranceOf } from '../engine-manifest';
 
 export interface LensSpecification {
   nominalFocalLengthMm: number;
@@ -42,10 +43,12 @@ export function analysedLensSpecificationDifference(
   const analysed = manifestLensOf(storedManifest);
   if (!analysed) return 'no-lens-in-analysis';
   // The manifest got these numbers from the same double-precision columns, and JSON keeps a double exactly, so === is right.
+  // The manifest carries the one tolerance the engine applies (the tighter, when the lens gives both).
+  const applied: { tolerancePercent?: number; toleranceMm?: number } = engineToleranceOf(lens);
   const sameSpecification =
     analysed.nominalFocalLengthMm === lens.nominalFocalLengthMm &&
-    (analysed.tolerancePercent ?? null) === lens.tolerancePercent &&
-    (analysed.toleranceMm ?? null) === lens.toleranceMm;
+    (analysed.tolerancePercent ?? null) === (applied.tolerancePercent ?? null) &&
+    (analysed.toleranceMm ?? null) === (applied.toleranceMm ?? null);
   if (!sameSpecification) return 'specification';
   // The engine's manifest schema defaults a missing rule to simple.
   if ((analysed.decisionRule ?? 'simple') !== decisionRule) return 'decision-rule';
