@@ -138,3 +138,11 @@ describe('parseEnv', () => {
     expect(Object.keys(numericSettings).filter((name) => !covered.has(name))).toEqual([]);
   });
 });
+
+describe('PARAXIA_WORKER_SENDS_MAIL', () => {
+  it('defaults to true, reads false, and names itself when it is neither', () => {
+    expect(parseEnv({}).PARAXIA_WORKER_SENDS_MAIL).toBe(true);
+    expect(parseEnv({ PARAXIA_WORKER_SENDS_MAIL: 'false' }).PARAXIA_WORKER_SENDS_MAIL).toBe(false);
+    expect(() => parseEnv({ PARAXIA_WORKER_SENDS_MAIL: 'sometimes' })).toThrow(/PARAXIA_WORKER_SENDS_MAIL must be true or false/);
+  });
+});

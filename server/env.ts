@@ -129,6 +129,8 @@ const envSchema = z
     MAIL_FROM: z.string().min(3, { error: 'must be a sender such as "Paraxia <no-reply@lab.example>".' }).default('Paraxia <no-reply@paraxia.example>'),
     MAIL_STORE_DIR: z.string().default(path.join(projectRoot, '.data', 'mail')),
     PARAXIA_MAIL_POLLING_MS: numericSetting('PARAXIA_MAIL_POLLING_MS'),
+    /** Whether an analysis worker process also sends the outbox (false for a worker that must only analyse). */
+    PARAXIA_WORKER_SENDS_MAIL: booleanText.default(true),
 
     PARAXIA_FRAME_MAX_BYTES: numericSetting('PARAXIA_FRAME_MAX_BYTES'),
     PARAXIA_FRAME_MAX_PIXELS: numericSetting('PARAXIA_FRAME_MAX_PIXELS'),

@@ -225,7 +225,19 @@ export async function updateWorkOrder(db: Database, workOrderId: string, input: 
     if (input.title !== undefined) changes.title = input.title;
     if (input.clientReference !== undefined) changes.clientReference = input.clientReference;
     if (input.dueDate !== undefined) changes.dueDate = input.dueDate;
-    if (input.decisionRule !== undefined) changes.decisionRule = input.decisionRule;
+    if (input.decisionRule !== undefined && input.decisionRule !== existing.decisionRule) {
+      // A reviewed or certified result was decided under the rule it was analysed with; changing it would make the record disagree with itself.
+      const locked = await tx.execute<{ number: string; status: string }>(sql`
+        select m.number, m.status from measurements m join lenses l on l.id = m.lens_id
+        where l.work_order_id = ${workOrderId} and m.status in ('submitted', 'approved', 'certified')
+        order by m.number limit 1`);
+      const [first] = locked.rows;
+      if (first) {
+        const message = `Field "decisionRule" cannot change: measurement ${first.number} of this work order is ${first.status} under the ${existing.decisionRule} rule.`;
+        throw new HttpError(HttpStatus.CONFLICT, message, { decisionRule: message });
+      }
+      changes.decisionRule = input.decisionRule;
+    }
     if (input.notes !== undefined) changes.notes = input.notes;
     if (input.status !== undefined) changes.status = input.status;
     const changedFields = Object.keys(changes).filter(

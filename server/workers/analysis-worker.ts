@@ -118,7 +118,7 @@ if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) 
   startAnalysisWorker({ env, log }).then(
     (worker) => {
       // The outbox is sent from here, never from the web process, so no request waits on SMTP.
-      const mail = startWorkerMailDispatcher(env, log);
+      const mail = env.PARAXIA_WORKER_SENDS_MAIL ? startWorkerMailDispatcher(env, log) : { stop: async () => undefined };
       const shutDown = (signal: string) => {
         log.info('Stopping the analysis worker.', { signal });
         Promise.all([worker.stop(), mail.stop()]).then(

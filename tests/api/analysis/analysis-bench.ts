@@ -200,7 +200,8 @@ export async function killWorkerMidRun(testApp: TestApp, options: { analysisRunI
   const projectRoot = path.resolve(import.meta.dirname, '../../..');
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/workers/analysis-worker.ts'], {
     cwd: projectRoot,
-    env: { ...process.env, ...options.env, PARAXIA_ANALYSIS_ENGINE_CONCURRENCY: '1', LOG_LEVEL: 'silent' },
+    // Its outbox dispatcher would send other test files' queued mail from the shared database.
+    env: { ...process.env, ...options.env, PARAXIA_ANALYSIS_ENGINE_CONCURRENCY: '1', LOG_LEVEL: 'silent', PARAXIA_WORKER_SENDS_MAIL: 'false' },
     stdio: ['ignore', 'ignore', 'inherit'],
   });
   const exited = new Promise<NodeJS.Signals | number | null>((resolve) => child.on('exit', (code, signal) => resolve(signal ?? code)));

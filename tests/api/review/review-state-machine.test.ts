@@ -232,6 +232,24 @@ describe('submission checks the analysis against the lens as it is now', () => {
     );
   });
 
+  it('the work order’s decision rule cannot change (409) once one of its measurements is submitted, and can before', async () => {
+    const { workOrder } = await createTestWorkOrder(testApp.deps);
+    const other = workOrder.decisionRule === 'simple' ? 'guarded' : 'simple';
+    const { staged } = await stagedOnOwnLens(workOrder);
+    const patchRule = (decisionRule: string) =>
+      sessions.technician.agent.patch(`/api/work-orders/${workOrder.id}`).set(CSRF_HEADER_NAME, sessions.technician.csrfToken).send({ decisionRule });
+    expect((await patchRule(other)).status).toBeLessThan(300);
+    expect((await patchRule(workOrder.decisionRule)).status).toBeLessThan(300);
+    expect((await post(performer, actions.submit.path(staged.id))).status).toBe(200);
+    const refused = await patchRule(other);
+    expect(refused.status, JSON.stringify(refused.body)).toBe(409);
+    expect(refused.body.error.fields.decisionRule).toBe(
+      `Field "decisionRule" cannot change: measurement ${staged.number} of this work order is submitted under the ${workOrder.decisionRule} rule.`,
+    );
+    const [row] = await testApp.deps.db.select({ decisionRule: workOrders.decisionRule }).from(workOrders).where(eq(workOrders.id, workOrder.id));
+    expect(row.decisionRule).toBe(workOrder.decisionRule);
+  });
+
   it('goes through (200) when only the lens description changed after the analysis', async () => {
     const { lens, staged } = await stagedOnOwnLens();
     const edited = await sessions.technician.agent.patch(`/api/lenses/${lens.id}`).set(CSRF_HEADER_NAME, sessions.technician.csrfToken).send({ description: 'Plano-convex singlet, AR coated' });
