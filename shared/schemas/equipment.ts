@@ -4,7 +4,7 @@
  * uncertainties (k = 1). Shared by the server's validators and the client.
  */
 import { z } from 'zod';
-import { isoDateField, optionalText, trimmedText, uuidField } from './work-orders';
+import { isoDateField, optionalText, searchTextField, trimmedText, uuidField } from './work-orders';
 
 /* Kept equal to the database enum in server/db/schema.ts (a test checks it). */
 export const equipmentKinds = ['camera', 'target', 'rail-scale', 'collimator', 'auxiliary-lens'] as const;
@@ -150,12 +150,7 @@ export type UpdateEquipmentInput = z.output<typeof updateEquipmentBody>;
 
 export const listEquipmentQuery = z.strictObject({
   kind: z.enum(equipmentKinds, { error: `Field "kind" must be one of: ${equipmentKinds.join(', ')}.` }).optional(),
-  q: z
-    .string({ error: 'Field "q" must be text.' })
-    .trim()
-    .max(200, { error: 'Field "q" must be at most 200 characters long.' })
-    .optional()
-    .transform((value) => (value ? value : undefined)),
+  q: searchTextField(),
   includeInactive: z
     .enum(['true', 'false'], { error: 'Field "includeInactive" must be true or false.' })
     .transform((value) => value === 'true')

@@ -13,7 +13,7 @@ import type { EquipmentItem, EquipmentKindName } from './equipment';
 import type { Frame } from './frames';
 import { lensMeasurementStatuses, type LensKind } from './lenses';
 import { checkMeasurementManifest, focusOperators, measurementMethods, type MeasurementManifestInput } from './measurement-manifest';
-import { isoDateField, optionalText, pageField, pageSizeField, sortOrders, uuidField, type DecisionRule, type SortOrder } from './work-orders';
+import { isoDateField, optionalText, pageField, pageSizeField, searchTextField, sortOrders, uuidField, type DecisionRule, type SortOrder } from './work-orders';
 
 export type MeasurementMethodName = (typeof measurementMethods)[number];
 export type FocusOperatorName = (typeof focusOperators)[number];
@@ -304,12 +304,7 @@ export const MEASUREMENT_PAGE_SIZE_MAX = 100;
 
 /** `status` takes one status or several separated by commas; `mine=true` keeps the caller's own; `q` searches number and lens identifier. */
 export const listMeasurementsQuery = z.strictObject({
-  q: z
-    .string({ error: 'Field "q" must be text.' })
-    .trim()
-    .max(200, { error: 'Field "q" must be at most 200 characters long.' })
-    .optional()
-    .transform((value) => (value ? value : undefined)),
+  q: searchTextField(),
   status: z
     .string({ error: 'Field "status" must be text.' })
     .transform((value, context) => {

@@ -12,6 +12,7 @@ import {
   optionalText,
   pageField,
   pageSizeField,
+  searchTextField,
   trimmedText,
   workOrderStatuses,
   type DecisionRule,
@@ -26,12 +27,7 @@ export const PORTAL_PAGE_SIZE_MAX = 50;
 
 /** `q` searches number, title, client reference and lens identifiers; `status` takes one or more statuses, comma-separated. */
 export const portalOrdersQuery = z.strictObject({
-  q: z
-    .string({ error: 'Field "q" must be text.' })
-    .trim()
-    .max(200, { error: 'Field "q" must be at most 200 characters long.' })
-    .optional()
-    .transform((value) => (value ? value : undefined)),
+  q: searchTextField(),
   status: z
     .string({ error: 'Field "status" must be text.' })
     .transform((value, context) => {

@@ -32,6 +32,16 @@ export function pageField() {
     .default(1);
 }
 
+/** `q` of a list: trimmed search text up to 200 characters; empty means no search. */
+export function searchTextField() {
+  return z
+    .string({ error: 'Field "q" must be text.' })
+    .trim()
+    .max(200, { error: 'Field "q" must be at most 200 characters long.' })
+    .optional()
+    .transform((value) => (value ? value : undefined));
+}
+
 /** `pageSize` of a paginated list: a whole number from 1 to `max`. */
 export function pageSizeField(max: number, defaultSize: number) {
   const message = `Field "pageSize" must be a whole number from 1 to ${max}.`;
@@ -107,12 +117,7 @@ export const workOrderIdParams = z.object({ workOrderId: uuidField('workOrderId'
  */
 export const listWorkOrdersQuery = z
   .strictObject({
-    q: z
-      .string({ error: 'Field "q" must be text.' })
-      .trim()
-      .max(200, { error: 'Field "q" must be at most 200 characters long.' })
-      .optional()
-      .transform((value) => (value ? value : undefined)),
+    q: searchTextField(),
     status: z
       .string({ error: 'Field "status" must be text.' })
       .transform((value, context) => {
