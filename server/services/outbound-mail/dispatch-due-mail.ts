@@ -55,12 +55,13 @@ export async function dispatchDueMail(
     ? sql`and id in (${sql.join(options.mailIds.map((id) => sql`${id}::uuid`), sql`, `)})`
     : sql``;
 
-  // While 'sending', next_attempt_at holds the end of the claim's lease.
+  // While 'sending', next_attempt_at holds the end of the claim's lease. PostgreSQL keeps microseconds and a JavaScript
+  // clock milliseconds, so a row queued in the same millisecond as `now` is compared at millisecond precision.
   const claimed = await deps.db.execute<ClaimedMail>(sql`
     update outbound_mail set status = 'sending', attempts = attempts + 1, next_attempt_at = ${leaseEnds}
     where id in (
       select id from outbound_mail
-      where status in ('queued', 'retrying', 'sending') and next_attempt_at <= ${now} ${onlyIds}
+      where status in ('queued', 'retrying', 'sending') and date_trunc('milliseconds', next_attempt_at) <= ${now} ${onlyIds}
       order by next_attempt_at, created_at
       limit ${limit}
       for update skip locked)

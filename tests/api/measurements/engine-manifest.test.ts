@@ -94,7 +94,8 @@ describe('buildEngineManifest', () => {
           frames: ['a', 'b', 'c', 'd', 'e'].map((name, i) => ({ file: `s2/${name}.png`, positionMm: 560 + i * 0.25 })),
         },
       ],
-      lens: { nominalFocalLengthMm: 100, tolerancePercent: 2, toleranceMm: 1.5, decisionRule: 'guarded' },
+      // ± 2 % of 100 mm is ± 2 mm; the engine takes one band, the tighter ± 1.5 mm.
+      lens: { nominalFocalLengthMm: 100, toleranceMm: 1.5, decisionRule: 'guarded' },
       analysis: { focusOperator: 'brenner', excludedFiles: ['s1/f3.png'] },
     });
     expect(checkMeasurementManifest(JSON.parse(JSON.stringify(manifest))).ok).toBe(true);
