@@ -20,7 +20,8 @@ export function normaliseEmail(email: string): string {
   return email.trim().toLowerCase();
 }
 
-const rolesOfPerson = sql<Role[]>`coalesce((select array_agg(pr.role::text order by pr.role) from person_roles pr where pr.person_id = ${people.id}), '{}'::text[])`;
+/** A person's roles as a sorted text array (empty when none). */
+export const rolesOfPerson = sql<Role[]>`coalesce((select array_agg(pr.role::text order by pr.role) from person_roles pr where pr.person_id = ${people.id}), '{}'::text[])`;
 
 async function selectPeople(db: Database, where: SQL): Promise<PersonWithCredentials[]> {
   const rows = await db
@@ -66,39 +67,3 @@ export function toSessionUser(person: PersonWithCredentials): SessionUser {
   return { id: person.id, email: person.email, name: person.name, roles: person.roles, organisation: person.organisation };
 }
 
-/** A person as the admin's people list shows them. */
-export interface PersonSummary extends SessionUser {
-  active: boolean;
-  createdAt: string;
-}
-
-export async function listPeople(db: Database, filter: { active?: boolean } = {}): Promise<PersonSummary[]> {
-  const rows = await db
-    .select({
-      id: people.id,
-      email: people.email,
-      name: people.name,
-      active: people.active,
-      createdAt: people.createdAt,
-      roles: rolesOfPerson,
-      organisationId: organisations.id,
-      organisationName: organisations.name,
-      organisationKind: organisations.kind,
-    })
-    .from(people)
-    .leftJoin(organisations, eq(organisations.id, people.organisationId))
-    .where(filter.active === undefined ? undefined : eq(people.active, filter.active))
-    .orderBy(asc(people.name), asc(people.email));
-  return rows.map((row) => ({
-    id: row.id,
-    email: row.email,
-    name: row.name,
-    active: row.active,
-    createdAt: row.createdAt.toISOString(),
-    roles: row.roles,
-    organisation:
-      row.organisationId && row.organisationName && row.organisationKind
-        ? { id: row.organisationId, name: row.organisationName, kind: row.organisationKind }
-        : null,
-  }));
-}

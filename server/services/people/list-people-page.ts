@@ -1,20 +1,16 @@
 import { and, asc, count, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
 import type { Database } from '../../db/client';
-import { organisations, people, type Role } from '../../db/schema';
+import { organisations, people } from '../../db/schema';
+import { containsPattern } from '../catalogue-queries';
+import { rolesOfPerson } from '../people';
 import type { AdminPersonSummary, ListPeopleQuery, PeoplePage } from '../../../shared/schemas/admin';
-
-const rolesOfPerson = sql<Role[]>`coalesce((select array_agg(pr.role::text order by pr.role) from person_roles pr where pr.person_id = people.id), '{}'::text[])`;
-
-function likePattern(text: string): string {
-  return `%${text.replace(/[\\%_]/g, (character) => `\\${character}`)}%`;
-}
 
 /** People for the admin's table: search by name or e-mail, filter by role and active, one page at a time. */
 export async function listPeoplePage(db: Database, query: ListPeopleQuery, options: { personId?: string } = {}): Promise<PeoplePage> {
   const conditions: SQL[] = [];
   if (options.personId) conditions.push(eq(people.id, options.personId));
   if (query.q) {
-    const pattern = likePattern(query.q);
+    const pattern = containsPattern(query.q);
     conditions.push(or(ilike(people.name, pattern), ilike(people.email, pattern))!);
   }
   if (query.role) conditions.push(sql`exists (select 1 from person_roles pr where pr.person_id = people.id and pr.role = ${query.role})`);
