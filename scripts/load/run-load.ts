@@ -197,7 +197,7 @@ function printPhase(name: string, result: LoadPhaseResult, cpu: PhaseCpu): void 
 }
 
 async function main(): Promise<number> {
-  const folders = serviceFolders(path.join(dataRoot, `load-${randomBytes(4).toString('hex')}`));
+  const folders = serviceFolders(path.join(dataRoot, `test-load-${randomBytes(4).toString('hex')}`));
   let stack: ServiceStack | undefined;
   let deps: ReturnType<typeof createDeps> | undefined;
   try {

@@ -22,8 +22,8 @@ import { createTestOrganisation } from '../helpers/people';
 import { createTestApp, type TestApp } from '../helpers/test-app';
 
 const log = createServiceLog('database-restart test');
-// Short, so the socket path stays under PostgreSQL's ~100-character limit.
-const clusterRoot = path.join(dataRoot, `f-${randomBytes(3).toString('hex')}`);
+// Short, so the socket path stays under PostgreSQL's ~100-character limit; "test-" so that `npm test` removes it if a killed run left it behind.
+const clusterRoot = path.join(dataRoot, `test-f-${randomBytes(3).toString('hex')}`);
 let postgresPort: number;
 let postgres: RunningPostgres | undefined;
 let testApp: TestApp;
@@ -54,9 +54,13 @@ beforeAll(async () => {
 }, 120_000);
 
 afterAll(async () => {
-  await testApp?.close().catch(() => undefined);
-  await postgres?.stop({ mode: 'immediate' }).catch(() => undefined);
-  await rm(clusterRoot, { recursive: true, force: true });
+  try {
+    // A pool can wait on a connection the restart broke; the private cluster must go whatever happens here.
+    await Promise.race([testApp?.close().catch(() => undefined), new Promise((resolve) => setTimeout(resolve, 10_000))]);
+  } finally {
+    await postgres?.stop({ mode: 'immediate' }).catch(() => undefined);
+    await rm(clusterRoot, { recursive: true, force: true });
+  }
 }, 60_000);
 
 interface Answer {
