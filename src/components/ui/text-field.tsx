@@ -1,5 +1,5 @@
 import { forwardRef, useId, type InputHTMLAttributes } from 'react';
-import { SquareCrossGlyph } from '@/components/ui/mark-glyphs';
+import { FieldFrame, fieldBorder, fieldDescribedBy } from '@/components/ui/field-frame';
 
 export interface TextFieldProps extends Omit<InputHTMLAttributes<HTMLInputElement>, 'id'> {
   label: string;
@@ -13,35 +13,16 @@ export const TextField = forwardRef<HTMLInputElement, TextFieldProps>(function T
   ref,
 ) {
   const id = useId();
-  const hintId = hint ? `${id}-hint` : undefined;
-  const errorId = error ? `${id}-error` : undefined;
-  const describedBy = [hintId, errorId].filter(Boolean).join(' ') || undefined;
   return (
-    <div className={`flex flex-col gap-1.5 ${className}`}>
-      <label htmlFor={id} className="text-small font-medium text-ink">
-        {label}
-      </label>
-      {hint ? (
-        <p id={hintId} className="text-caption text-ink-faint">
-          {hint}
-        </p>
-      ) : null}
+    <FieldFrame id={id} label={label} hint={hint} error={error} className={className}>
       <input
         ref={ref}
         id={id}
         aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy}
-        className={`h-10 rounded-sheet border bg-sheet px-3 text-body text-ink placeholder:text-ink-faint/70 disabled:bg-shade disabled:text-ink-soft ${
-          error ? 'border-nonconform' : 'border-rule-strong'
-        }`}
+        aria-describedby={fieldDescribedBy(id, hint, error)}
+        className={`h-10 rounded-sheet border bg-sheet px-3 text-body text-ink placeholder:text-ink-faint/70 disabled:bg-shade disabled:text-ink-soft ${fieldBorder(error)}`}
         {...inputProps}
       />
-      {error ? (
-        <p id={errorId} className="flex items-start gap-1.5 text-small text-nonconform">
-          <SquareCrossGlyph className="mt-[0.2em] size-3.5 shrink-0" />
-          {error}
-        </p>
-      ) : null}
-    </div>
+    </FieldFrame>
   );
 });

@@ -1,6 +1,6 @@
 import { useId, useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
-import { SquareCrossGlyph } from '@/components/ui/mark-glyphs';
+import { FieldProblem } from '@/components/ui/field-frame';
 import { ProblemNote } from '@/components/ui/problem-note';
 import { TextField } from '@/components/ui/text-field';
 import { useCreateEquipment } from '@/features/equipment/api/create-equipment';
@@ -17,15 +17,6 @@ import {
   type FieldProblems,
 } from '@/features/equipment/lib/equipment-request';
 import { EQUIPMENT_KIND_WORDS, EQUIPMENT_VALUE_FIELDS, type ValueField } from '@/features/equipment/lib/equipment-value-fields';
-
-function ProblemLine({ id, message }: { id: string; message: string }) {
-  return (
-    <p id={id} className="flex items-start gap-1.5 text-small text-nonconform">
-      <SquareCrossGlyph className="mt-[0.2em] size-3.5 shrink-0" />
-      {message}
-    </p>
-  );
-}
 
 function ValueInput({ field, value, onChange, error }: { field: ValueField; value: string; onChange: (text: string) => void; error?: string }) {
   const id = useId();
@@ -67,7 +58,7 @@ function ValueInput({ field, value, onChange, error }: { field: ValueField; valu
           <span className="w-9 pr-3 text-right font-light text-ink-faint">{field.unit}</span>
         </div>
       )}
-      {error ? <ProblemLine id={`${id}-error`} message={error} /> : null}
+      {error ? <FieldProblem id={`${id}-error`} message={error} /> : null}
     </div>
   );
 }
@@ -186,7 +177,7 @@ export function EquipmentForm({ editing, initialKind = 'camera', onDone, onCance
             <ValueInput key={field.key} field={field} value={draft.values[field.key] ?? ''} onChange={(text) => setValue(field.key, text)} error={problems[valueProblemKey(field.key)]} />
           ))}
         </div>
-        {problems.values ? <div className="mt-3"><ProblemLine id={`${kindId}-values`} message={problems.values} /></div> : null}
+        {problems.values ? <div className="mt-3"><FieldProblem id={`${kindId}-values`} message={problems.values} /></div> : null}
       </fieldset>
       <div className="grid gap-4 md:grid-cols-4">
         <TextField

@@ -1,6 +1,6 @@
 import { useId, useState, type FormEvent, type ReactNode } from 'react';
 import { Button } from '@/components/ui/button';
-import { SquareCrossGlyph } from '@/components/ui/mark-glyphs';
+import { FieldProblem } from '@/components/ui/field-frame';
 import { ProblemNote } from '@/components/ui/problem-note';
 import { Quantity } from '@/components/ui/quantity';
 import { TextField } from '@/components/ui/text-field';
@@ -95,12 +95,7 @@ function UnitNumberField({
         />
         <span className="pr-3 font-light text-ink-faint">{unitSuffix}</span>
       </div>
-      {error ? (
-        <p id={`${id}-error`} className="flex items-start gap-1.5 text-small text-nonconform">
-          <SquareCrossGlyph className="mt-[0.2em] size-3.5 shrink-0" />
-          {error}
-        </p>
-      ) : null}
+      {error ? <FieldProblem id={`${id}-error`} message={error} /> : null}
     </div>
   );
 }

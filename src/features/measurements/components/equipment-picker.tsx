@@ -6,7 +6,7 @@ import { LoadingNote } from '@/components/ui/loading-note';
 import { ProblemNote } from '@/components/ui/problem-note';
 import { useEquipmentOfKind } from '@/features/measurements/api/get-equipment-for-role';
 import { CalibrationMark } from '@/features/measurements/components/calibration-mark';
-import { FieldErrorText } from '@/features/measurements/components/field-error-text';
+import { FieldProblem } from '@/components/ui/field-frame';
 import { equipmentValuesText } from '@/features/measurements/utils/equipment-values-text';
 import { EQUIPMENT_ROLE_WORDS } from '@/features/measurements/utils/method-requirements';
 
@@ -95,7 +95,7 @@ export function EquipmentPicker({
           })}
         </div>
       ) : null}
-      {error ? <FieldErrorText id={`${name}-error`}>{error}</FieldErrorText> : null}
+      {error ? <FieldProblem id={`${name}-error`} message={error} /> : null}
       {selected?.calibrationState === 'overdue' ? (
         <div className="space-y-1.5 rounded-sheet border border-nonconform/40 bg-nonconform-tint/40 px-3 py-2.5" data-role="override">
           <label htmlFor={`${name}-override`} className="block text-small font-semibold text-ink">
@@ -114,7 +114,7 @@ export function EquipmentPicker({
             aria-describedby={`${name}-override-hint`}
             className={`w-full rounded-sheet border bg-sheet px-3 py-2 text-body text-ink ${overrideError ? 'border-nonconform' : 'border-rule-strong'}`}
           />
-          {overrideError ? <FieldErrorText>{overrideError}</FieldErrorText> : null}
+          {overrideError ? <FieldProblem message={overrideError} /> : null}
         </div>
       ) : null}
     </fieldset>

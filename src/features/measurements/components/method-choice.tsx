@@ -1,6 +1,6 @@
 import { useId } from 'react';
 import type { MeasurementMethod } from '@shared/measure/types';
-import { SquareCrossGlyph } from '@/components/ui/mark-glyphs';
+import { FieldProblem } from '@/components/ui/field-frame';
 import { methodRequirements, METHODS_IN_OFFER_ORDER } from '@/features/measurements/utils/method-requirements';
 
 export interface MethodChoiceProps {
@@ -53,12 +53,7 @@ export function MethodChoice({ value, onChange, suggested, error }: MethodChoice
           );
         })}
       </div>
-      {error ? (
-        <p id={errorId} className="mt-1.5 flex items-start gap-1.5 text-small text-nonconform">
-          <SquareCrossGlyph className="mt-[0.2em] size-3.5 shrink-0" />
-          {error}
-        </p>
-      ) : null}
+      {error ? <FieldProblem id={errorId} message={error} className="mt-1.5" /> : null}
     </fieldset>
   );
 }

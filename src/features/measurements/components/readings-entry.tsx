@@ -3,7 +3,7 @@ import { formatFixed } from '@/components/charts/chart-format';
 import { Button } from '@/components/ui/button';
 import { ProblemNote } from '@/components/ui/problem-note';
 import { TextField } from '@/components/ui/text-field';
-import { FieldErrorText } from '@/features/measurements/components/field-error-text';
+import { FieldProblem } from '@/components/ui/field-frame';
 import type { ReadingsPreview } from '@/features/measurements/utils/readings-preview';
 
 export type ReadingsMode = 'start-step' | 'text' | 'edit';
@@ -154,7 +154,7 @@ export function ReadingsEntry(props: ReadingsEntryProps) {
     body = (
       <div className="space-y-2">
         <p className="text-small text-ink-soft">Type each frame’s rail reading into the table below, then save them all at once.</p>
-        {fileProblems.length > 0 ? <FieldErrorText>{`${fileProblems.length} ${fileProblems.length === 1 ? 'reading needs' : 'readings need'} attention: ${fileProblems[0]}${fileProblems.length > 1 ? ' …' : ''}`}</FieldErrorText> : null}
+        {fileProblems.length > 0 ? <FieldProblem message={`${fileProblems.length} ${fileProblems.length === 1 ? 'reading needs' : 'readings need'} attention: ${fileProblems[0]}${fileProblems.length > 1 ? ' …' : ''}`} /> : null}
       </div>
     );
   }

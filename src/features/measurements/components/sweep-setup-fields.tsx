@@ -1,7 +1,7 @@
 import type { MeasurementMethod } from '@shared/measure/types';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/text-field';
-import { FieldErrorText } from '@/features/measurements/components/field-error-text';
+import { FieldProblem } from '@/components/ui/field-frame';
 import { MAXIMUM_SWEEPS, sweepFieldKey, type SweepDraft } from '@/features/measurements/utils/build-create-measurement-request';
 import { methodRequirements, SWEEP_READING_WORDS } from '@/features/measurements/utils/method-requirements';
 
@@ -55,7 +55,7 @@ export function SweepSetupFields({ method, sweeps, onChange, fieldErrors }: Swee
           </Button>
         </div>
       </div>
-      {fieldErrors.sweeps ? <FieldErrorText>{fieldErrors.sweeps}</FieldErrorText> : null}
+      {fieldErrors.sweeps ? <FieldProblem message={fieldErrors.sweeps} /> : null}
       <ol className="divide-y divide-rule rounded-sheet border border-rule bg-sheet">
         {sweeps.map((sweep, index) => (
           <li key={index} className="grid gap-x-4 gap-y-2 px-4 py-3 md:grid-cols-[6rem_repeat(2,minmax(0,1fr))]" data-sweep={index + 1}>

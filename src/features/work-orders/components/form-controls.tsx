@@ -1,14 +1,5 @@
 import { useId, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
-import { SquareCrossGlyph } from '@/components/ui/mark-glyphs';
-
-function FieldProblem({ id, message }: { id: string; message: string }) {
-  return (
-    <p id={id} className="flex items-start gap-1.5 text-small text-nonconform">
-      <SquareCrossGlyph className="mt-[0.2em] size-3.5 shrink-0" />
-      {message}
-    </p>
-  );
-}
+import { FieldFrame, FieldProblem, fieldBorder, fieldDescribedBy } from '@/components/ui/field-frame';
 
 export interface SelectFieldProps extends Omit<SelectHTMLAttributes<HTMLSelectElement>, 'id'> {
   label: string;
@@ -20,28 +11,18 @@ export interface SelectFieldProps extends Omit<SelectHTMLAttributes<HTMLSelectEl
 /** A labelled select that looks like TextField and shows the server's sentence under it. */
 export function SelectField({ label, error, hint, className = '', children, ...selectProps }: SelectFieldProps) {
   const id = useId();
-  const describedBy = [hint ? `${id}-hint` : '', error ? `${id}-error` : ''].filter(Boolean).join(' ') || undefined;
   return (
-    <div className={`flex flex-col gap-1.5 ${className}`}>
-      <label htmlFor={id} className="text-small font-medium text-ink">
-        {label}
-      </label>
-      {hint ? (
-        <p id={`${id}-hint`} className="text-caption text-ink-faint">
-          {hint}
-        </p>
-      ) : null}
+    <FieldFrame id={id} label={label} hint={hint} error={error} className={className}>
       <select
         id={id}
         aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy}
-        className={`h-10 rounded-sheet border bg-sheet px-2.5 text-body text-ink disabled:bg-shade ${error ? 'border-nonconform' : 'border-rule-strong'}`}
+        aria-describedby={fieldDescribedBy(id, hint, error)}
+        className={`h-10 rounded-sheet border bg-sheet px-2.5 text-body text-ink disabled:bg-shade ${fieldBorder(error)}`}
         {...selectProps}
       >
         {children}
       </select>
-      {error ? <FieldProblem id={`${id}-error`} message={error} /> : null}
-    </div>
+    </FieldFrame>
   );
 }
 
@@ -53,26 +34,16 @@ export interface TextAreaFieldProps extends Omit<TextareaHTMLAttributes<HTMLText
 
 export function TextAreaField({ label, error, hint, className = '', ...areaProps }: TextAreaFieldProps) {
   const id = useId();
-  const describedBy = [hint ? `${id}-hint` : '', error ? `${id}-error` : ''].filter(Boolean).join(' ') || undefined;
   return (
-    <div className={`flex flex-col gap-1.5 ${className}`}>
-      <label htmlFor={id} className="text-small font-medium text-ink">
-        {label}
-      </label>
-      {hint ? (
-        <p id={`${id}-hint`} className="text-caption text-ink-faint">
-          {hint}
-        </p>
-      ) : null}
+    <FieldFrame id={id} label={label} hint={hint} error={error} className={className}>
       <textarea
         id={id}
         aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy}
-        className={`min-h-20 rounded-sheet border bg-sheet px-3 py-2 text-body text-ink placeholder:text-ink-faint/70 ${error ? 'border-nonconform' : 'border-rule-strong'}`}
+        aria-describedby={fieldDescribedBy(id, hint, error)}
+        className={`min-h-20 rounded-sheet border bg-sheet px-3 py-2 text-body text-ink placeholder:text-ink-faint/70 ${fieldBorder(error)}`}
         {...areaProps}
       />
-      {error ? <FieldProblem id={`${id}-error`} message={error} /> : null}
-    </div>
+    </FieldFrame>
   );
 }
 
