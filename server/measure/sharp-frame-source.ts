@@ -38,8 +38,8 @@ class PixelArrayPool {
   }
 
   give(array: Float32Array): void {
-    // Two lanes each hold a reduced copy or a region: four arrays cover them.
-    if (this.free.length < 4 && !this.free.includes(array)) this.free.push(array);
+    // Regions being decoded, waiting and measured: six arrays cover two lanes (see analyseSweepFromLocatingSubset).
+    if (this.free.length < 6 && !this.free.includes(array)) this.free.push(array);
   }
 }
 

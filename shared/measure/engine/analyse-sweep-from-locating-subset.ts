@@ -3,6 +3,7 @@ import type { FrameAnalysis, FrameRejectionReason } from '../../schemas/measurem
 import type { TargetDetection } from '../target/detect-target';
 import type { ReducedFrame } from './frame-source';
 import { mapWithReadAhead } from './map-with-read-ahead';
+import { mapAsReadsFinish } from './map-as-reads-finish';
 import { isUnreadable, readOrReject } from './read-or-reject';
 import { chooseRegionSide } from './choose-region-side';
 import { regionAround } from './region-around';
@@ -127,10 +128,11 @@ export async function analyseSweepFromLocatingSubset(
     return result;
   };
 
-  // One read more in flight than lanes: while this thread measures a frame, `concurrency` decodes still run.
-  const firstResults: (FrameAnalysis | FollowUp)[] = await mapWithReadAhead(
+  // One read more running than lanes, and up to `concurrency` regions waiting: while this thread measures a
+  // frame, decodes keep running; frames are measured in the order their regions arrive.
+  const firstResults: (FrameAnalysis | FollowUp)[] = await mapAsReadsFinish(
     frames,
-    options.concurrency + 1,
+    { reads: options.concurrency + 1, held: options.concurrency },
     async (frame, index) => {
       const rect = predictedRect(index);
       return rect ? { rect, region: await readOrReject<GreyImage>(frame.file, () => source.readRegion(frame.file, rect)) } : null;
@@ -155,6 +157,9 @@ export async function analyseSweepFromLocatingSubset(
         return { kind: 'recentre', detection: inRegion.detection };
       }
       return finish(frame.file, measured(region, rect, inRegion.detection, frame));
+    },
+    (read) => {
+      if (read && !isUnreadable(read.region)) source.recycle?.(read.region);
     },
   );
 

@@ -1,6 +1,7 @@
 import type { FocusOperator, GreyImage, PixelRect } from '../types';
 import { checkRectInsideImage } from '../image/check-rect';
 import { invariant } from '../image/invariant';
+import { gradientEnergySums } from '../kernels/pixel-kernels';
 
 export const FOCUS_OPERATORS: readonly FocusOperator[] = [
   'gradient-energy',
@@ -102,9 +103,11 @@ export function focusMeasures(image: GreyImage, options: FocusMeasuresOptions = 
   const h = rect.height;
 
   const shift = data[(y0 + (h >> 1)) * stride + x0 + (w >> 1)];
-  const sums = new Float64Array(7);
-  accumulateFocusSums(data, stride, x0, y0, w, h, shift, saturationLevel ?? Infinity, sums);
-  const [sumIntensity, sumIntensitySq, sumGradientSq, sumLaplacian, sumLaplacianSq, sumBrenner, saturatedCount] = sums;
+  // Gradient energy, the mean level and the clipped count from the pixel kernel, as `chosenFocusMeasure` takes them.
+  const { sumIntensity, sumGradientSq, saturatedCount } = gradientEnergySums(image, rect, shift, saturationLevel ?? Infinity);
+  const sums = new Float64Array(4);
+  accumulateFocusSums(data, stride, x0, y0, w, h, shift, sums);
+  const [sumIntensitySq, sumLaplacian, sumLaplacianSq, sumBrenner] = sums;
 
   const pixelCount = w * h;
   const interiorPixelCount = (w - 2) * (h - 2);
@@ -146,13 +149,12 @@ export function focusMeasure(image: GreyImage, options: FocusMeasureOptions): nu
 }
 
 /**
- * One pass over the region for all the sums the measures need, written to
- * `sums` as [Σ(I − shift), Σ(I − shift)², Σ(Gx² + Gy²), ΣL, ΣL², Σ brenner,
- * count of pixels ≥ saturationLevel].
- * Along each row the three-pixel column sums t + 2m + b, b − t and t + b are
- * carried forward, so the Sobel, Laplacian and Brenner stencils each cost a
- * few additions per pixel (for whole-number pixel values the sums are exact,
- * the same as summing each stencil in full).
+ * One pass over the region for the other sums the measures need, written to
+ * `sums` as [Σ(I − shift)², ΣL, ΣL², Σ brenner] (gradient energy's come from
+ * the pixel kernel). Along each row the three-pixel column sums b − t and
+ * t + b are carried forward, so the Laplacian and Brenner stencils each cost
+ * a few additions per pixel (for whole-number pixel values the sums are
+ * exact, the same as summing each stencil in full).
  */
 function accumulateFocusSums(
   data: Float32Array,
@@ -162,7 +164,6 @@ function accumulateFocusSums(
   w: number,
   h: number,
   shift: number,
-  saturationLevel: number,
   sums: Float64Array,
 ): void {
   // Whole numbers as 32-bit integers: a rectangle's fields can arrive stored as doubles
@@ -173,10 +174,7 @@ function accumulateFocusSums(
   y0 |= 0;
   w |= 0;
   h |= 0;
-  let saturatedCount = 0;
-  let sumIntensity = 0;
   let sumIntensitySq = 0;
-  let sumGradientSq = 0;
   let sumLaplacian = 0;
   let sumLaplacianSq = 0;
   let sumBrenner = 0;
@@ -185,9 +183,7 @@ function accumulateFocusSums(
     const edgeRow = y === y0 || y === y0 + h - 1;
     const row = y * stride + x0;
     for (let x = 0; x < w; x += edgeRow ? 1 : w - 1) {
-      if (data[row + x] >= saturationLevel) saturatedCount++;
       const v = data[row + x] - shift;
-      sumIntensity += v;
       sumIntensitySq += v * v;
     }
   }
@@ -196,10 +192,7 @@ function accumulateFocusSums(
     const mid = y * stride + x0;
     const down = (y + 1) * stride + x0;
     // Column sums at x − 1 (left) and x (centre), as the window moves right.
-    let smoothLeft = data[up] + 2 * data[mid] + data[down];
-    let differenceLeft = data[down] - data[up];
     let middleLeft = data[mid];
-    let smoothCentre = data[up + 1] + 2 * data[mid + 1] + data[down + 1];
     let differenceCentre = data[down + 1] - data[up + 1];
     let outerCentre = data[up + 1] + data[down + 1];
     let middleCentre = data[mid + 1];
@@ -207,35 +200,23 @@ function accumulateFocusSums(
       const top = data[up + x];
       const middle = data[mid + x];
       const bottom = data[down + x];
-      const smoothRight = top + 2 * middle + bottom;
       const differenceRight = bottom - top;
-      const gx = smoothRight - smoothLeft;
-      const gy = differenceLeft + 2 * differenceCentre + differenceRight;
       const laplacian = outerCentre + middleLeft + middle - 4 * middleCentre;
       const dx = middle - middleLeft;
-      sumGradientSq += gx * gx + gy * gy;
       sumLaplacian += laplacian;
       sumLaplacianSq += laplacian * laplacian;
       sumBrenner += dx * dx + differenceCentre * differenceCentre;
-      if (middleCentre >= saturationLevel) saturatedCount++;
       const v = middleCentre - shift;
-      sumIntensity += v;
       sumIntensitySq += v * v;
-      smoothLeft = smoothCentre;
-      differenceLeft = differenceCentre;
       middleLeft = middleCentre;
-      smoothCentre = smoothRight;
       differenceCentre = differenceRight;
       outerCentre = top + bottom;
       middleCentre = middle;
     }
     // Stored row by row, not once after the loop: code after a long loop that has never run would deoptimise it.
-    sums[0] = sumIntensity;
-    sums[1] = sumIntensitySq;
-    sums[2] = sumGradientSq;
-    sums[3] = sumLaplacian;
-    sums[4] = sumLaplacianSq;
-    sums[5] = sumBrenner;
-    sums[6] = saturatedCount;
+    sums[0] = sumIntensitySq;
+    sums[1] = sumLaplacian;
+    sums[2] = sumLaplacianSq;
+    sums[3] = sumBrenner;
   }
 }

@@ -1,4 +1,5 @@
 import type { GreyImage, PixelRect } from '../types';
+import { boxReduce } from '../kernels/pixel-kernels';
 
 export interface DownsampleImageOptions {
   /** Whole number of full-resolution pixels per reduced pixel along each axis. */
@@ -27,25 +28,8 @@ export function downsampleImage(image: GreyImage, options: DownsampleImageOption
   const { factor } = checkDownsampleImageOptions(image, options);
   const width = Math.floor(image.width / factor);
   const height = Math.floor(image.height / factor);
-  const rowSums = new Float64Array(width);
-  const data = new Float32Array(width * height);
-  const source = image.data;
-  const scale = 1 / (factor * factor);
-  for (let j = 0; j < height; j++) {
-    rowSums.fill(0);
-    for (let dy = 0; dy < factor; dy++) {
-      let offset = (j * factor + dy) * image.width;
-      for (let i = 0; i < width; i++) {
-        let sum = 0;
-        for (let dx = 0; dx < factor; dx++) sum += source[offset + dx];
-        rowSums[i] += sum;
-        offset += factor;
-      }
-    }
-    const outOffset = j * width;
-    for (let i = 0; i < width; i++) data[outOffset + i] = rowSums[i] * scale;
-  }
-  return { width, height, data, maxValue: image.maxValue };
+  // In the pixel kernel (WebAssembly): in JavaScript this reduction was a tenth of a frame's measuring time.
+  return { width, height, data: boxReduce(image, factor, width, height), maxValue: image.maxValue };
 }
 
 /** Full-resolution coordinate of a reduced-copy coordinate (pixel centres at whole numbers). */
