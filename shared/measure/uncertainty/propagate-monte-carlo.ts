@@ -80,21 +80,24 @@ export function propagateMonteCarlo(options: PropagateMonteCarloOptions): Propag
   const outputs = new Float64Array(draws);
   const means = Float64Array.from(inputs, (input) => input.value);
   const standardUncertainties = Float64Array.from(inputs, (input) => input.standardUncertainty);
-  const degreesOfFreedom = Float64Array.from(inputs, (input) => input.degreesOfFreedom);
-  const standardDeviates = new Float64Array(n);
+  // Every input's standard deviates for all trials first, one array per input (filled in one loop each).
+  const deviates = inputs.map((input) => {
+    const column = new Float64Array(draws);
+    random.fillStudentT(column, input.degreesOfFreedom);
+    return column;
+  });
   // One array handed to the model on every trial (the model reads it, never keeps it): a fresh one per trial was most of the loop's cost.
   const values = inputs.map((input) => input.value);
   // Welford's running mean and variance (stable for large M).
   let mean = 0;
   let sumSquaredDeviations = 0;
   for (let trial = 0; trial < draws; trial++) {
-    for (let i = 0; i < n; i++) standardDeviates[i] = random.nextStudentT(degreesOfFreedom[i]);
     for (let i = 0; i < n; i++) {
-      let deviate = standardDeviates[i];
+      let deviate = deviates[i][trial];
       if (lower && scale) {
         // correlation has unit diagonal, so the Jacobi scale is 1 and L·z has the right correlation
         deviate = 0;
-        for (let k = 0; k <= i; k++) deviate += lower[i][k] * standardDeviates[k];
+        for (let k = 0; k <= i; k++) deviate += lower[i][k] * deviates[k][trial];
       }
       values[i] = means[i] + standardUncertainties[i] * deviate;
     }
