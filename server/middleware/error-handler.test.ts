@@ -5,7 +5,14 @@ import { describe, expect, it } from 'vitest';
 import { HttpError } from '../http-error';
 import { HttpStatus } from '../http-status';
 import type { Logger } from '../services/logger';
-import { apiNotFound, DATABASE_UNAVAILABLE_MESSAGE, errorHandler, INTERNAL_ERROR_MESSAGE, isDatabaseUnavailable } from './error-handler';
+import {
+  apiNotFound,
+  CONCURRENT_CHANGE_MESSAGE,
+  DATABASE_UNAVAILABLE_MESSAGE,
+  errorHandler,
+  INTERNAL_ERROR_MESSAGE,
+  isDatabaseUnavailable,
+} from './error-handler';
 
 function recordingLogger() {
   const errors: { message: string; details?: Record<string, unknown> }[] = [];
@@ -83,6 +90,18 @@ describe('errorHandler', () => {
     // SQLSTATE codes from the PostgreSQL manual, Appendix A.
     expect(isDatabaseUnavailable(Object.assign(new Error('terminating connection due to administrator command'), { code: '57P01' }))).toBe(true);
     expect(isDatabaseUnavailable(Object.assign(new Error('duplicate key value'), { code: '23505' }))).toBe(false);
+  });
+
+  it('answers a transaction PostgreSQL gave up on a collision (SQLSTATE 40P01 deadlock, 40001 serialization) with 409 and a sentence to try again', async () => {
+    // SQLSTATE codes from the PostgreSQL manual, Appendix A.
+    const { log, errors } = recordingLogger();
+    const deadlock = Object.assign(new Error('deadlock detected'), { code: '40P01' });
+    for (const error of [deadlock, new Error('Failed query: update people', { cause: deadlock }), Object.assign(new Error('could not serialize access'), { code: '40001' })]) {
+      const response = await request(appThrowing(error, log)).get('/api/boom');
+      expect(response.status).toBe(409);
+      expect(response.body).toEqual({ error: { message: CONCURRENT_CHANGE_MESSAGE } });
+    }
+    expect(errors).toHaveLength(0);
   });
 
   it('maps a malformed multipart form (busboy) to 400 with a sentence instead of a 500', async () => {

@@ -59,6 +59,20 @@ export function isDatabaseUnavailable(error: unknown): boolean {
   return false;
 }
 
+/** PostgreSQL SQLSTATE 40001 (serialization failure) and 40P01 (deadlock detected), PostgreSQL manual, Appendix A. */
+const CONCURRENT_CHANGE_CODES = new Set(['40001', '40P01']);
+
+export const CONCURRENT_CHANGE_MESSAGE = 'Someone else changed the same records at the same moment, so nothing was saved; please try again.';
+
+/** True when the error, or one it wraps, is PostgreSQL giving up a transaction that collided with another. */
+export function isConcurrentChange(error: unknown): boolean {
+  for (let current = error, depth = 0; current instanceof Error && depth < 5; current = current.cause, depth++) {
+    const code = (current as { code?: unknown }).code;
+    if (typeof code === 'string' && CONCURRENT_CHANGE_CODES.has(code)) return true;
+  }
+  return false;
+}
+
 /** Maps an error to the one API error shape; returns null for a bug. */
 export function describeClientError(error: unknown): { status: HttpStatusCode; body: ApiErrorBody } | null {
   if (error instanceof HttpError) return { status: error.status, body: error.toBody() };
@@ -66,6 +80,9 @@ export function describeClientError(error: unknown): { status: HttpStatusCode; b
   if (isDatabaseUnavailable(error)) {
     return { status: HttpStatus.SERVICE_UNAVAILABLE, body: { error: { message: DATABASE_UNAVAILABLE_MESSAGE } } };
   }
+
+  // The transaction was rolled back whole, so retrying is safe.
+  if (isConcurrentChange(error)) return { status: HttpStatus.CONFLICT, body: { error: { message: CONCURRENT_CHANGE_MESSAGE } } };
 
   if (error instanceof multer.MulterError) {
     const message = (multerMessages[error.code] ?? (() => 'The upload could not be read.'))(error.field);

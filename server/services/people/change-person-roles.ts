@@ -6,7 +6,7 @@ import { recordAuditEvent } from '../audit-log';
 import type { Actor } from '../catalogue-queries';
 import type { Database } from '../../db/client';
 import type { Queryable } from '../numbering';
-import { assertAdminRemains } from './assert-admin-remains';
+import { lockActiveAdmins, refuseRemovingLastAdmin } from './last-admin-guard';
 
 const LAB_ROLES: readonly Role[] = ['technician', 'reviewer', 'admin'];
 
@@ -36,12 +36,14 @@ export async function findPersonForUpdate(tx: Queryable, personId: string) {
 /** Replaces a person's roles; audited as `person.roles-changed` with before and after. */
 export async function changePersonRoles(db: Database, personId: string, roles: Role[], actor: Actor): Promise<void> {
   await db.transaction(async (tx) => {
+    // The administrators' rows before this person's (see lockActiveAdmins).
+    const activeAdminIds = await lockActiveAdmins(tx);
     const person = await findPersonForUpdate(tx, personId);
     const misfit = rolesFitOrganisation(roles, person.organisationKind);
     if (misfit) throw new HttpError(HttpStatus.CONFLICT, misfit, { roles: misfit });
     const after = [...roles].sort();
     if (person.roles.includes('admin') && !after.includes('admin')) {
-      await assertAdminRemains(tx, { personId, actorId: actor.actorId, what: 'remove-admin' });
+      refuseRemovingLastAdmin(activeAdminIds, { personId, actorId: actor.actorId, what: 'remove-admin' });
     }
     if (after.join(',') === person.roles.join(',')) return;
     await tx.delete(personRoles).where(eq(personRoles.personId, personId));

@@ -3,7 +3,7 @@ import type { Database } from '../../db/client';
 import { people } from '../../db/schema';
 import { recordAuditEvent } from '../audit-log';
 import type { Actor } from '../catalogue-queries';
-import { assertAdminRemains } from './assert-admin-remains';
+import { lockActiveAdmins, refuseRemovingLastAdmin } from './last-admin-guard';
 import { findPersonForUpdate } from './change-person-roles';
 import { endPersonSessions } from './end-person-sessions';
 
@@ -14,11 +14,13 @@ import { endPersonSessions } from './end-person-sessions';
  */
 export async function setPersonActive(db: Database, personId: string, active: boolean, actor: Actor): Promise<void> {
   await db.transaction(async (tx) => {
+    // The administrators' rows before this person's (see lockActiveAdmins).
+    const activeAdminIds = active ? [] : await lockActiveAdmins(tx);
     const person = await findPersonForUpdate(tx, personId);
     if (person.active === active) return;
     let sessionsEnded = 0;
     if (!active) {
-      if (person.roles.includes('admin')) await assertAdminRemains(tx, { personId, actorId: actor.actorId, what: 'deactivate' });
+      if (person.roles.includes('admin')) refuseRemovingLastAdmin(activeAdminIds, { personId, actorId: actor.actorId, what: 'deactivate' });
       sessionsEnded = await endPersonSessions(tx, personId);
     }
     await tx
