@@ -17,7 +17,7 @@ import sharp from 'sharp';
 import { cachedBenchMeasurement } from './synth/cached-bench-measurement';
 import { measureFolder } from '../server/measure/measure-folder';
 
-const ROUNDS = 3;
+const ROUNDS = 7;
 const WARM_UP_ANALYSES = 2;
 const lanes = Math.max(2, os.availableParallelism());
 
