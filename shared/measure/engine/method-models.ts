@@ -1,6 +1,7 @@
 import type { MeasurementManifest } from '../../schemas/measurement-manifest';
 import { combineCorrelatedEstimates, finiteConjugateSolution, solveFiniteConjugate } from '../solvers/solve-finite-conjugate';
 import { solveMultiConjugate } from '../solvers/solve-multi-conjugate';
+import { multiConjugateFocalLength, multiConjugateScratch, type ConjugateColumns } from '../solvers/multi-conjugate-focal-length';
 import { solveDisplacement } from '../solvers/solve-displacement';
 import { solveCollimator } from '../solvers/solve-collimator';
 import { solveAuxiliaryLens } from '../solvers/solve-auxiliary-lens';
@@ -227,8 +228,27 @@ function conjugateModel(manifest: MeasurementManifest, fits: SweepFits[], inputs
   if (nominal.degreesOfFreedom < 1) {
     warnings.push('Two conjugates give no redundancy: the principal-plane offsets carry no check from the data.');
   }
+  // The focal length alone, for the 10⁵ Monte Carlo draws: the same solve (to ~1e-10) in preallocated arrays, weights fixed as above.
+  const columns: ConjugateColumns = {
+    objectDistanceMm: new Float64Array(sweeps.length),
+    imageDistanceMm: new Float64Array(sweeps.length),
+    magnitude: new Float64Array(sweeps.length),
+    objectDistanceUncertaintyMm: Float64Array.from(weightsFixed, (w) => w.objectDistanceUncertaintyMm),
+    imageDistanceUncertaintyMm: Float64Array.from(weightsFixed, (w) => w.imageDistanceUncertaintyMm),
+    magnificationUncertainty: Float64Array.from(weightsFixed, (w) => w.magnificationUncertainty),
+  };
+  const scratch = multiConjugateScratch(sweeps.length);
+  const focalOnly = (v: number[]) => {
+    for (let i = 0; i < sweeps.length; i++) {
+      const s = sweeps[i];
+      columns.objectDistanceMm[i] = v[s.lensMm] - v[s.objectMm as number];
+      columns.imageDistanceMm[i] = imagePositionMm(v, s) - v[s.lensMm];
+      columns.magnitude[i] = Math.abs(magnification(v, s, common));
+    }
+    return multiConjugateFocalLength(columns, scratch);
+  };
   return {
-    focal: (v: number[]) => solveAt(v).focalLengthMm,
+    focal: focalOnly,
     estimates: [] as MethodModel['estimates'],
     extras: [
       { key: 'frontOffsetMm' as const, model: (v: number[]) => solveAt(v).frontOffsetMm },
