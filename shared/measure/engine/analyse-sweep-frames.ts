@@ -1,6 +1,7 @@
 import type { FocusOperator, TargetPattern, TargetPolarity } from '../types';
 import type { FrameAnalysis } from '../../schemas/measurement-result';
 import type { FrameSource } from './frame-source';
+import type { RegionSize } from './choose-region-size';
 import { analyseSweepFromLocatingSubset, RegionTooSmallForSweep } from './analyse-sweep-from-locating-subset';
 import { analyseSweepLocatingEveryFrame } from './analyse-sweep-locating-every-frame';
 
@@ -27,7 +28,7 @@ export interface AnalyseSweepFramesOptions {
 export interface SweepFramesResult {
   frames: FrameAnalysis[];
   polarity: TargetPolarity;
-  regionSidePx: number;
+  regionSize: RegionSize;
 }
 
 /**

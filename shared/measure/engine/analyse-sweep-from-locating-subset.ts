@@ -5,7 +5,7 @@ import type { ReducedFrame } from './frame-source';
 import { mapWithReadAhead } from './map-with-read-ahead';
 import { mapAsReadsFinish } from './map-as-reads-finish';
 import { isUnreadable, readOrReject } from './read-or-reject';
-import { chooseRegionSide } from './choose-region-side';
+import { chooseRegionSize, type RegionSize } from './choose-region-size';
 import { regionAround } from './region-around';
 import { majorityPolarity } from './majority-polarity';
 import { measureSweepFrame } from './measure-sweep-frame';
@@ -101,22 +101,28 @@ export async function analyseSweepFromLocatingSubset(
   });
   const { factor, fullWidth, fullHeight } = found[0];
   // One reduced pixel of extent more than the locating frames need: the extent's own step (see the check at the end).
-  const regionSidePx = chooseRegionSide(found.map((l) => l.detection), factor);
+  const regionSize: RegionSize = chooseRegionSize(found.map((l) => l.detection), factor);
   const measureOptions = { ...options, polarity, everyFocusOperator: options.everyFocusOperator ?? false };
 
-  const extentOf = (detection: TargetDetection) => Math.max(detection.blurExtentBox.width, detection.blurExtentBox.height);
-  const locatingExtent = Math.max(...found.map((l) => extentOf(l.detection)));
+  // Extents along each axis (the region is sized per axis).
+  const extentOf = (detection: TargetDetection): RegionSize => ({ width: detection.blurExtentBox.width, height: detection.blurExtentBox.height });
+  const widestOf = (extents: RegionSize[]): RegionSize => ({
+    width: Math.max(...extents.map((e) => e.width)),
+    height: Math.max(...extents.map((e) => e.height)),
+  });
+  const wider = (extent: RegionSize, than: RegionSize) => !(extent.width <= than.width + factor && extent.height <= than.height + factor);
+  const locatingExtent = widestOf(found.map((l) => extentOf(l.detection)));
   // Extents found in regions are compared among themselves: detection in a region sized to the target
   // splits background from target at other levels than on a whole frame, and gives somewhat wider extents.
-  const regionExtents: { index: number; extent: number }[] = [];
+  const regionExtents: { index: number; extent: RegionSize }[] = [];
   const checkOnFrame = (file: string, detection: TargetDetection) => {
-    if (extentOf(detection) > locatingExtent + factor) throw new RegionTooSmallForSweep(file);
+    if (wider(extentOf(detection), locatingExtent)) throw new RegionTooSmallForSweep(file);
   };
   const predictedRect = (index: number): PixelRect | null => {
     const loc = located[index];
     if (loc && !loc.detection) return null;
     const centre = loc?.detection?.centrePx ?? interpolateTargetCentre(path, frames[index].positionMm);
-    return regionAround(centre, regionSidePx, fullWidth, fullHeight);
+    return regionAround(centre, regionSize, fullWidth, fullHeight);
   };
   const finish = (file: string, result: FrameAnalysis) => {
     onFrameDone(file);
@@ -151,7 +157,7 @@ export async function analyseSweepFromLocatingSubset(
       }
       if (inRegion.touchesRegionEdge) throw new RegionTooSmallForSweep(frame.file);
       regionExtents.push({ index, extent: extentOf(inRegion.detection) });
-      const centred = regionAround(inRegion.detection.centrePx, regionSidePx, fullWidth, fullHeight);
+      const centred = regionAround(inRegion.detection.centrePx, regionSize, fullWidth, fullHeight);
       if (Math.hypot(centred.x - rect.x, centred.y - rect.y) > 2 * factor) {
         source.recycle?.(region);
         return { kind: 'recentre', detection: inRegion.detection };
@@ -189,7 +195,7 @@ export async function analyseSweepFromLocatingSubset(
     } else {
       detection = first.detection;
     }
-    const rect = regionAround(detection.centrePx, regionSidePx, width, height);
+    const rect = regionAround(detection.centrePx, regionSize, width, height);
     const region = await readOrReject<GreyImage>(frame.file, () => source.readRegion(frame.file, rect));
     results.push(
       finish(frame.file, isUnreadable(region) ? rejectedFrameRecord(frame, 'undecodable') : measured(region, rect, detection, frame)),
@@ -198,8 +204,10 @@ export async function analyseSweepFromLocatingSubset(
   // No frame's blur may be wider than the widest locating frame's (by more than one reduced pixel, the
   // extent's own step); otherwise the region size is not vouched for and the sweep is done the sure way.
   const locatingInRegions = regionExtents.filter(({ index }) => located[index]?.detection);
-  const widestLocating = Math.max(...locatingInRegions.map((e) => e.extent));
-  const widest = regionExtents.reduce((w, e) => (e.extent > w.extent ? e : w), { index: -1, extent: -Infinity });
-  if (widest.index >= 0 && !(widest.extent <= widestLocating + factor)) throw new RegionTooSmallForSweep(frames[widest.index].file);
-  return { frames: results, polarity, regionSidePx };
+  if (locatingInRegions.length > 0) {
+    const widestLocating = widestOf(locatingInRegions.map((e) => e.extent));
+    const tooWide = regionExtents.find((e) => wider(e.extent, widestLocating));
+    if (tooWide) throw new RegionTooSmallForSweep(frames[tooWide.index].file);
+  }
+  return { frames: results, polarity, regionSize };
 }

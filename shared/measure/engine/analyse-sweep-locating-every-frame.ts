@@ -6,7 +6,7 @@ import { MeasurementError } from './measurement-error';
 import type { ReducedFrame } from './frame-source';
 import { mapWithReadAhead } from './map-with-read-ahead';
 import { isUnreadable, readOrReject } from './read-or-reject';
-import { chooseRegionSide } from './choose-region-side';
+import { chooseRegionSize } from './choose-region-size';
 import { regionAround } from './region-around';
 import { majorityPolarity } from './majority-polarity';
 import { measureSweepFrame } from './measure-sweep-frame';
@@ -69,13 +69,13 @@ export async function analyseSweepLocatingEveryFrame(
   const found = located.filter((l) => l.detection !== null);
   if (found.length === 0) throw noTargetError(located, pattern);
   const polarity = options.polarity ?? majorityPolarity(found.map((l) => l.detection!.polarity));
-  const regionSidePx = chooseRegionSide(found.map((l) => l.detection!));
+  const regionSize = chooseRegionSize(found.map((l) => l.detection!));
   const measureOptions = { ...options, polarity, everyFocusOperator: options.everyFocusOperator ?? false };
 
   const regionOf = (index: number): PixelRect | null => {
     const loc = located[index];
     if (!loc.detection || loc.detection.polarity !== polarity) return null;
-    return regionAround(loc.detection.centrePx, regionSidePx, loc.fullWidth, loc.fullHeight);
+    return regionAround(loc.detection.centrePx, regionSize, loc.fullWidth, loc.fullHeight);
   };
   // One read more in flight than lanes: while this thread measures a frame, `concurrency` decodes still run.
   const results: FrameAnalysis[] = await mapWithReadAhead(
@@ -102,5 +102,5 @@ export async function analyseSweepLocatingEveryFrame(
     },
   );
 
-  return { frames: results, polarity, regionSidePx };
+  return { frames: results, polarity, regionSize };
 }

@@ -63,9 +63,7 @@ export function measureSweepFrame(
   try {
     if (options.pattern === 'dot-pair') {
       const [a, b] = local.blobs;
-      const separation = Math.hypot(a.centroidPx.x - b.centroidPx.x, a.centroidPx.y - b.centroidPx.y);
-      const dotRadius = Math.sqrt(Math.max(a.areaPx, b.areaPx) / Math.PI);
-      const searchRadiusPx = Math.max(4, Math.min(0.48 * separation, 2.5 * dotRadius));
+      const { dotRadius, searchRadiusPx } = dotWindowOf(local);
       const dots = measureDotPair(region, {
         polarity: options.polarity,
         approximateCentresPx: [a.centroidPx, b.centroidPx],
@@ -113,6 +111,27 @@ export function measureSweepFrame(
     overlay,
     mtf50CyclesPerPixel: mtf50,
   };
+}
+
+/** The dot measurement's window sizes from a detection's two blobs: the dots' radius and the largest window radius it starts from. */
+function dotWindowOf(detection: TargetDetection): { dotRadius: number; searchRadiusPx: number } {
+  const [a, b] = detection.blobs;
+  const separation = Math.hypot(a.centroidPx.x - b.centroidPx.x, a.centroidPx.y - b.centroidPx.y);
+  const dotRadius = Math.sqrt(Math.max(a.areaPx, b.areaPx) / Math.PI);
+  return { dotRadius, searchRadiusPx: Math.max(4, Math.min(0.48 * separation, 2.5 * dotRadius)) };
+}
+
+/**
+ * How far from each dot's centre the dot measurement reads pixels for a
+ * target detected like `detection`: the outer radius of the background ring
+ * around its largest window (see measureDotPair), plus the ring sampling's
+ * own pixel of margin.
+ */
+export function dotBackgroundReachPx(detection: TargetDetection): number {
+  const [a, b] = detection.blobs;
+  const separation = Math.hypot(a.centroidPx.x - b.centroidPx.x, a.centroidPx.y - b.centroidPx.y);
+  const window = Math.min(dotWindowOf(detection).searchRadiusPx, 0.5 * separation);
+  return window + 1 + Math.max(4, 0.5 * window) + 2;
 }
 
 function medianOf(values: number[]): number | null {

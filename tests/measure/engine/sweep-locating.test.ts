@@ -117,8 +117,10 @@ describe('analyseSweepFrames locating the target', { timeout: 120_000 }, () => {
     expect(result.frames.map((f) => f.status)).toEqual(reference.frames.map((f) => f.status));
     expect(result.frames.every((f) => f.status === 'used')).toBe(true);
     // The quick path's region is one reduced pixel of extent (×1.3) wider, never narrower.
-    expect(result.regionSidePx).toBeGreaterThanOrEqual(reference.regionSidePx);
-    expect(result.regionSidePx).toBeLessThanOrEqual(reference.regionSidePx + Math.ceil(1.3 * 4) + 1);
+    for (const axis of ['width', 'height'] as const) {
+      expect(result.regionSize[axis]).toBeGreaterThanOrEqual(reference.regionSize[axis]);
+      expect(result.regionSize[axis]).toBeLessThanOrEqual(reference.regionSize[axis] + Math.ceil(1.3 * 4) + 1 + 2 * 4);
+    }
     // The dots' windows are sized from the detected blob areas, which the two detections give a little
     // differently, so the centroids see slightly different noise: sizes agree to 5e-4, a quarter of the
     // engine's 0.2 % magnification target, on these small noisy dots.
