@@ -93,10 +93,15 @@ class Xoshiro128StarStar implements SeededRandom {
   }
 
   private refillBlock(): void {
-    const block = this.block;
+    this.fillRaw(this.block);
+    this.blockIndex = 0;
+  }
+
+  /** Fills `out` with the generator's next 32-bit outputs, in order, with the state in local variables. */
+  private fillRaw(out: Uint32Array): void {
     let { s0, s1, s2, s3 } = this;
-    for (let i = 0; i < block.length; i++) {
-      block[i] = Math.imul(rotateLeft(Math.imul(s1, 5), 7), 9);
+    for (let i = 0; i < out.length; i++) {
+      out[i] = Math.imul(rotateLeft(Math.imul(s1, 5), 7), 9);
       const t = s1 << 9;
       s2 ^= s0;
       s3 ^= s1;
@@ -109,7 +114,6 @@ class Xoshiro128StarStar implements SeededRandom {
     this.s1 = s1;
     this.s2 = s2;
     this.s3 = s3;
-    this.blockIndex = 0;
   }
 
   private nextUint32(): number {
@@ -182,33 +186,17 @@ class Xoshiro128StarStar implements SeededRandom {
   private readonly uniforms = new Float64Array(4096);
   private uniformAt = 4096;
 
+  /** Raw outputs behind `uniforms`, two per uniform. */
+  private readonly uniformBits = new Uint32Array(2 * 4096);
+
   /** Refills `uniforms`, each from two 32-bit outputs as in `nextUniform`. */
   private refillUniforms(): void {
     const uniforms = this.uniforms;
-    let { s0, s1, s2, s3 } = this;
+    const bits = this.uniformBits;
+    this.fillRaw(bits);
     for (let i = 0; i < uniforms.length; i++) {
-      const high = Math.imul(rotateLeft(Math.imul(s1, 5), 7), 9) >>> 5;
-      let t = s1 << 9;
-      s2 ^= s0;
-      s3 ^= s1;
-      s1 ^= s2;
-      s0 ^= s3;
-      s2 ^= t;
-      s3 = rotateLeft(s3, 11);
-      const low = Math.imul(rotateLeft(Math.imul(s1, 5), 7), 9) >>> 6;
-      t = s1 << 9;
-      s2 ^= s0;
-      s3 ^= s1;
-      s1 ^= s2;
-      s0 ^= s3;
-      s2 ^= t;
-      s3 = rotateLeft(s3, 11);
-      uniforms[i] = (high * 67108864 + low) * 1.1102230246251565e-16;
+      uniforms[i] = ((bits[2 * i] >>> 5) * 67108864 + (bits[2 * i + 1] >>> 6)) * 1.1102230246251565e-16;
     }
-    this.s0 = s0;
-    this.s1 = s1;
-    this.s2 = s2;
-    this.s3 = s3;
     this.uniformAt = 0;
   }
 
