@@ -48,7 +48,7 @@ function plannedPeople(runId: string): LoadPerson[] {
 
 export async function seedLoadData(db: Database, options: { workOrders: number; today: string }): Promise<LoadData> {
   const runId = randomBytes(3).toString('hex');
-  const [lab] = await db.insert(organisations).values({ name: `Wexcombe Optical Test Bench ${runId}`, kind: 'lab' }).returning();
+  const [lab] = await db.insert(organisations).values({ name: `Wexcombe Optical Test Bench ${runId}`, kind: 'lab', postalAddress: '2 Load Lane\nWexcombe WX3 3LD, Examplia' }).returning();
   const clients = await db
     .insert(organisations)
     .values(CLIENT_NAMES.map((name) => ({ name: `${name} ${runId}`, kind: 'client' as const })))

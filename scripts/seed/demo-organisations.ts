@@ -4,10 +4,17 @@ import { organisations, type OrganisationKind } from '../../server/db/schema';
 
 /** Invented organisations; any likeness to real ones is unintended. */
 export const demoOrganisations = [
-  { key: 'lab', name: 'Larkspur Optical Test Laboratory', kind: 'lab' },
-  { key: 'quillmere', name: 'Quillmere Instruments', kind: 'client' },
-  { key: 'tovel', name: 'Tovel Marine Optics', kind: 'client' },
-] as const satisfies readonly { key: string; name: string; kind: OrganisationKind }[];
+  {
+    key: 'lab',
+    name: 'Larkspur Optical Test Laboratory',
+    kind: 'lab',
+    postalAddress: 'Unit 3, Foundry Lane Works\n41 Larkspur Road\nWrenford WF2 8LQ, Examplia',
+    email: 'certificates@larkspur-lab.example',
+    phone: '+00 555 0199',
+  },
+  { key: 'quillmere', name: 'Quillmere Instruments', kind: 'client', postalAddress: 'Goods inwards, Building C\n7 Quillmere Park\nHatherby HB4 2QE, Examplia' },
+  { key: 'tovel', name: 'Tovel Marine Optics', kind: 'client', postalAddress: 'Harbour Works\nTovel Quay\nSaltmarsh SM1 9TV, Examplia' },
+] as const satisfies readonly { key: string; name: string; kind: OrganisationKind; postalAddress: string; email?: string; phone?: string }[];
 
 export type DemoOrganisationKey = (typeof demoOrganisations)[number]['key'];
 
@@ -15,7 +22,7 @@ export type DemoOrganisationKey = (typeof demoOrganisations)[number]['key'];
 export async function seedDemoOrganisations(db: Database): Promise<Record<DemoOrganisationKey, string>> {
   await db
     .insert(organisations)
-    .values(demoOrganisations.map(({ name, kind }) => ({ name, kind })))
+    .values(demoOrganisations.map(({ key: _key, ...organisation }) => organisation))
     .onConflictDoNothing({ target: organisations.name });
   const rows = await db
     .select({ id: organisations.id, name: organisations.name })

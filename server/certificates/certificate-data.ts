@@ -115,7 +115,8 @@ export const certificateDataSchema = z
     }),
     client: z.object({
       name: text(120),
-      addressLines: z.array(text(120)).min(1).max(5),
+      // Up to five lines of postal address and two of the contact.
+      addressLines: z.array(text(120)).min(1).max(7),
       orderReference: text(80).optional(),
     }),
     item: z.object({

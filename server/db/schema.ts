@@ -32,6 +32,10 @@ export const organisations = pgTable('organisations', {
   id: uuid('id').primaryKey().defaultRandom(),
   name: text('name').notNull().unique(),
   kind: organisationKind('kind').notNull(),
+  /** Postal address, one line per line; empty when not recorded. The lab's is printed on every certificate. */
+  postalAddress: text('postal_address').notNull().default(''),
+  email: text('email'),
+  phone: text('phone'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

@@ -172,7 +172,46 @@ export interface PasswordResetLinkView {
 export const organisationIdParams = z.object({ organisationId: uuidField('organisationId') });
 export const contactIdParams = z.object({ organisationId: uuidField('organisationId'), contactId: uuidField('contactId') });
 
-export const saveOrganisationBody = z.object({ name: trimmedText('name', 200) }).strict();
+/** As many lines as a certificate prints for an address. */
+export const POSTAL_ADDRESS_MAX_LINES = 5;
+export const POSTAL_ADDRESS_MAX_LINE_LENGTH = 120;
+
+/** A postal address as typed, one line per line: lines trimmed, blank ones dropped; stored joined with newlines ('' when none). */
+const postalAddressField = z
+  .string({ error: 'Field "postalAddress" must be text.' })
+  .transform((value) =>
+    value
+      .split(/\r?\n/)
+      .map((line) => line.trim())
+      .filter(Boolean),
+  )
+  .refine((lines) => lines.length <= POSTAL_ADDRESS_MAX_LINES, {
+    error: `Field "postalAddress" must have at most ${POSTAL_ADDRESS_MAX_LINES} lines.`,
+  })
+  .refine((lines) => lines.every((line) => line.length <= POSTAL_ADDRESS_MAX_LINE_LENGTH), {
+    error: `Each line of field "postalAddress" must be at most ${POSTAL_ADDRESS_MAX_LINE_LENGTH} characters long.`,
+  })
+  .transform((lines) => lines.join('\n'));
+
+/** An e-mail address that may be left out: empty or null is stored as null. */
+const optionalEmailField = z
+  .string({ error: 'Field "email" must be text.' })
+  .trim()
+  .toLowerCase()
+  .max(320, { error: 'Field "email" must be at most 320 characters long.' })
+  .nullable()
+  .refine((value) => !value || z.email().safeParse(value).success, { error: 'Field "email" must be an e-mail address like name@lab.example.' })
+  .transform((value) => value || null);
+
+/** Creating needs a name; on a change every field left out stays as it is. */
+export const saveOrganisationBody = z
+  .object({
+    name: trimmedText('name', 200),
+    postalAddress: postalAddressField.optional(),
+    email: optionalEmailField.optional(),
+    phone: optionalText('phone', 60).optional(),
+  })
+  .strict();
 export type SaveOrganisationBody = z.output<typeof saveOrganisationBody>;
 
 export const saveContactBody = z
@@ -190,6 +229,10 @@ export interface OrganisationWithCounts {
   id: string;
   name: string;
   kind: 'lab' | 'client';
+  /** Lines joined with newlines; '' when not recorded. */
+  postalAddress: string;
+  email: string | null;
+  phone: string | null;
   contactCount: number;
   personCount: number;
   workOrderCount: number;

@@ -152,6 +152,21 @@ describe('the administrator’s journey in a browser', () => {
     await shown(page.getByRole('row').filter({ hasText: 'Casimir Wendt' }));
     await screenshot(page, 'organisation-detail');
 
+    // The client's postal address, for its certificates: a seventh line is refused with a sentence, six blank-trimmed lines are kept as five.
+    await page.getByRole('button', { name: 'Change details' }).click();
+    const detailsForm = await shown(page.getByRole('form', { name: 'Change the organisation’s details' }));
+    await detailsForm.getByLabel('Postal address').fill('Goods inwards\nBuilding C\n7 Quillmere Park\nHatherby\nHB4 2QE\nExamplia');
+    await detailsForm.getByRole('button', { name: 'Save details' }).click();
+    await shown(detailsForm.getByText('Field "postalAddress" must have at most 5 lines.'));
+    await screenshot(page, 'organisation-address-refused');
+    await detailsForm.getByLabel('Postal address').fill('Goods inwards, Building C\n\n  7 Quillmere Park  \nHatherby HB4 2QE, Examplia');
+    await detailsForm.getByLabel('Phone').fill('+00 555 0117');
+    await detailsForm.getByRole('button', { name: 'Save details' }).click();
+    const address = await shown(page.locator('address'));
+    expect(await address.innerText()).toBe('Goods inwards, Building C\n7 Quillmere Park\nHatherby HB4 2QE, Examplia');
+    await shown(page.getByText('+00 555 0117'));
+    await screenshot(page, 'organisation-address');
+
     // Audit log: people and roles only, then export with the same filter.
     await page.goto(`${baseUrl}/admin/audit`);
     await shown(page.getByRole('heading', { level: 1, name: 'Audit log' }));

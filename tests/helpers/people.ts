@@ -27,10 +27,12 @@ export function uniqueSuffix(): string {
 
 export async function createTestOrganisation(
   deps: Pick<AppDeps, 'db'>,
-  options: { kind: OrganisationKind; name?: string },
+  options: { kind: OrganisationKind; name?: string; postalAddress?: string },
 ): Promise<{ id: string; name: string; kind: OrganisationKind }> {
   const name = options.name ?? `Test ${options.kind} organisation ${uniqueSuffix()}`;
-  const [row] = await deps.db.insert(organisations).values({ name, kind: options.kind }).returning();
+  // A lab prints its address on every certificate; test labs get an invented one unless told otherwise.
+  const postalAddress = options.postalAddress ?? (options.kind === 'lab' ? '1 Test Bench Row\nTestford TF1 1AA, Examplia' : '');
+  const [row] = await deps.db.insert(organisations).values({ name, kind: options.kind, postalAddress }).returning();
   return { id: row.id, name: row.name, kind: row.kind };
 }
 

@@ -8,7 +8,7 @@ import {
   deleteContact,
   getOrganisationDetail,
   listOrganisationsWithCounts,
-  renameOrganisation,
+  updateOrganisation,
   updateContact,
 } from '../../services/organisations/organisations';
 import { listOrganisations } from '../../services/work-orders';
@@ -42,7 +42,7 @@ export function postOrganisation(deps: AppDeps): RequestHandler {
 export function patchOrganisation(deps: AppDeps): RequestHandler {
   return async (req, res) => {
     const { organisationId } = res.locals.params as { organisationId: string };
-    await renameOrganisation(deps.db, organisationId, res.locals.body as SaveOrganisationBody, actorOf(req));
+    await updateOrganisation(deps.db, organisationId, res.locals.body as SaveOrganisationBody, actorOf(req));
     res.status(HttpStatus.OK).json({ organisation: await getOrganisationDetail(deps.db, organisationId) });
   };
 }

@@ -23,7 +23,7 @@ export const organisationRoutes: RouteDefinition[] = [
     method: 'post',
     path: '/api/organisations',
     roles: ['admin'],
-    summary: 'Creates a client organisation.',
+    summary: 'Creates a client organisation (name; postal address, e-mail and phone optional).',
     handlers: (deps) => [validateBody(saveOrganisationBody), postOrganisation(deps)],
   },
   {
@@ -37,7 +37,7 @@ export const organisationRoutes: RouteDefinition[] = [
     method: 'patch',
     path: '/api/organisations/:organisationId',
     roles: ['admin'],
-    summary: 'Renames an organisation.',
+    summary: 'Renames an organisation and changes its postal address, e-mail and phone (fields left out stay as they are).',
     handlers: (deps) => [validateParams(organisationIdParams), validateBody(saveOrganisationBody), patchOrganisation(deps)],
   },
   {

@@ -13,7 +13,8 @@ import { analysisRuns, equipment, lenses, measurements, organisationContacts, or
 import { invariant } from '../../invariant';
 import type { Queryable } from '../numbering';
 import { analysedLensSpecificationDifference } from '../review/analysed-lens-specification';
-import { FALLBACK_LAB_NAME, LAB_IDENTITY } from './lab-identity';
+import { HttpError } from '../../http-error';
+import { HttpStatus } from '../../http-status';
 
 type Sweep = CertificateData['results']['sweeps'][number];
 
@@ -60,6 +61,13 @@ function certificateSweep(sweep: SweepResult, index: number, method: Measurement
   };
 }
 
+/** The client's postal address (when recorded) and the contact who receives certificates; something is always said. */
+function clientLines(postalAddress: string, contact: { name: string; position: string | null; email: string } | undefined): string[] {
+  const lines = postalAddress ? postalAddress.split('\n') : [];
+  if (contact) lines.push([contact.name, contact.position].filter(Boolean).join(', '), contact.email);
+  return lines.length > 0 ? lines : ['Contact details held on the laboratory’s work order file'];
+}
+
 export interface CertificateIdentity {
   number: string;
   revision: number;
@@ -99,8 +107,18 @@ export async function buildCertificateData(tx: Queryable, measurementId: string,
   const nameOf = new Map(personRows.map((p) => [p.id, p.name]));
   const approver = personRows.find((p) => p.id === m.approvedById);
 
-  const labRows = await tx.select({ id: organisations.id, name: organisations.name }).from(organisations).where(eq(organisations.kind, 'lab')).orderBy(asc(organisations.createdAt));
+  const labRows = await tx
+    .select({ id: organisations.id, name: organisations.name, postalAddress: organisations.postalAddress, email: organisations.email, phone: organisations.phone })
+    .from(organisations)
+    .where(eq(organisations.kind, 'lab'))
+    .orderBy(asc(organisations.createdAt));
   const lab = labRows.find((o) => o.id === approver?.organisationId) ?? labRows[0];
+  if (!lab || lab.postalAddress === '') {
+    throw new HttpError(
+      HttpStatus.CONFLICT,
+      `A certificate must state the laboratory’s address (ISO/IEC 17025 §7.8.2.1), and ${lab ? `${lab.name} has` : 'the laboratory has'} none recorded; an administrator can enter it under Administration → Organisations, then issue again.`,
+    );
+  }
 
   const contacts = await tx
     .select()
@@ -126,12 +144,15 @@ export async function buildCertificateData(tx: Queryable, measurementId: string,
       issueDate: identity.issueDate,
       ...(identity.replaces ? { replaces: identity.replaces } : {}),
     },
-    lab: { name: lab?.name ?? FALLBACK_LAB_NAME, ...LAB_IDENTITY },
+    lab: {
+      name: lab.name,
+      addressLines: lab.postalAddress.split('\n'),
+      ...(lab.email ? { email: lab.email } : {}),
+      ...(lab.phone ? { phone: lab.phone } : {}),
+    },
     client: {
       name: client.name,
-      addressLines: contact
-        ? [[contact.name, contact.position].filter(Boolean).join(', '), contact.email]
-        : ['Contact details held on the laboratory’s work order file'],
+      addressLines: clientLines(client.postalAddress, contact),
       orderReference: workOrder.clientReference ? `${workOrder.clientReference} (work order ${workOrder.number})` : `Work order ${workOrder.number}`,
     },
     item: {

@@ -18,13 +18,16 @@ const countColumns = {
   id: organisations.id,
   name: organisations.name,
   kind: organisations.kind,
+  postalAddress: organisations.postalAddress,
+  email: organisations.email,
+  phone: organisations.phone,
   createdAt: organisations.createdAt,
   contactCount: sql<number>`(select count(*)::int from organisation_contacts c where c.organisation_id = organisations.id)`,
   personCount: sql<number>`(select count(*)::int from people p where p.organisation_id = organisations.id)`,
   workOrderCount: sql<number>`(select count(*)::int from work_orders w where w.organisation_id = organisations.id)`,
 };
 
-function toOrganisation(row: { id: string; name: string; kind: 'lab' | 'client'; createdAt: Date; contactCount: number; personCount: number; workOrderCount: number }): OrganisationWithCounts {
+function toOrganisation(row: Omit<OrganisationWithCounts, 'createdAt'> & { createdAt: Date }): OrganisationWithCounts {
   return { ...row, createdAt: row.createdAt.toISOString() };
 }
 
@@ -77,27 +80,59 @@ async function assertNameFree(tx: Queryable, name: string, exceptId?: string): P
 export async function createClientOrganisation(db: Database, input: SaveOrganisationBody, actor: Actor): Promise<string> {
   return db.transaction(async (tx) => {
     await assertNameFree(tx, input.name);
-    const [row] = await tx.insert(organisations).values({ name: input.name, kind: 'client' }).returning({ id: organisations.id });
+    const [row] = await tx
+      .insert(organisations)
+      .values({ name: input.name, kind: 'client', postalAddress: input.postalAddress ?? '', email: input.email ?? null, phone: input.phone ?? null })
+      .returning({ id: organisations.id });
     await recordAuditEvent(tx, { actorId: actor.actorId, action: 'organisation.created', subjectType: 'organisation', subjectId: row.id, details: { name: input.name }, ip: actor.ip });
     return row.id;
   });
 }
 
-export async function renameOrganisation(db: Database, organisationId: string, input: SaveOrganisationBody, actor: Actor): Promise<void> {
+/**
+ * Renames an organisation and changes its postal address, e-mail and phone
+ * (fields left out stay as they are). A rename is audited as
+ * `organisation.renamed` with before and after; other changes as
+ * `organisation.details-changed` naming the fields.
+ */
+export async function updateOrganisation(db: Database, organisationId: string, input: SaveOrganisationBody, actor: Actor): Promise<void> {
   await db.transaction(async (tx) => {
-    const [current] = await tx.select({ name: organisations.name }).from(organisations).where(eq(organisations.id, organisationId)).for('update');
+    const [current] = await tx
+      .select({ name: organisations.name, postalAddress: organisations.postalAddress, email: organisations.email, phone: organisations.phone })
+      .from(organisations)
+      .where(eq(organisations.id, organisationId))
+      .for('update');
     if (!current) throw new HttpError(HttpStatus.NOT_FOUND, 'There is no organisation with this id.');
-    if (current.name === input.name) return;
-    await assertNameFree(tx, input.name, organisationId);
-    await tx.update(organisations).set({ name: input.name }).where(eq(organisations.id, organisationId));
-    await recordAuditEvent(tx, {
-      actorId: actor.actorId,
-      action: 'organisation.renamed',
-      subjectType: 'organisation',
-      subjectId: organisationId,
-      details: { before: current.name, after: input.name },
-      ip: actor.ip,
-    });
+    const details = {
+      ...(input.postalAddress !== undefined ? { postalAddress: input.postalAddress } : {}),
+      ...(input.email !== undefined ? { email: input.email } : {}),
+      ...(input.phone !== undefined ? { phone: input.phone } : {}),
+    };
+    const changedDetails = (Object.keys(details) as (keyof typeof details)[]).filter((key) => details[key] !== current[key]);
+    const renamed = current.name !== input.name;
+    if (!renamed && changedDetails.length === 0) return;
+    if (renamed) await assertNameFree(tx, input.name, organisationId);
+    await tx.update(organisations).set({ name: input.name, ...details }).where(eq(organisations.id, organisationId));
+    if (renamed) {
+      await recordAuditEvent(tx, {
+        actorId: actor.actorId,
+        action: 'organisation.renamed',
+        subjectType: 'organisation',
+        subjectId: organisationId,
+        details: { before: current.name, after: input.name },
+        ip: actor.ip,
+      });
+    }
+    if (changedDetails.length > 0) {
+      await recordAuditEvent(tx, {
+        actorId: actor.actorId,
+        action: 'organisation.details-changed',
+        subjectType: 'organisation',
+        subjectId: organisationId,
+        details: { fields: changedDetails, before: Object.fromEntries(changedDetails.map((k) => [k, current[k]])), after: Object.fromEntries(changedDetails.map((k) => [k, details[k]])) },
+        ip: actor.ip,
+      });
+    }
   });
 }
 

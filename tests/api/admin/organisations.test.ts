@@ -49,6 +49,48 @@ describe('client organisations', () => {
     expect(empty.body.error.fields.name).toBe('Field "name" must not be empty.');
   });
 
+  it('records a postal address (lines trimmed, blank ones dropped), e-mail and phone; fields left out stay; the change is audited with before and after', async () => {
+    const created = await send(admin, 'post', '/api/organisations', {
+      name: `Orrin Lens Works ${uniqueSuffix()}`,
+      postalAddress: '  4 Kiln Street \r\n\r\nMarlow Cross MC2 5OL ',
+      email: 'Goods@Orrin.example',
+    });
+    expect(created.status).toBe(201);
+    const { id, name } = created.body.organisation;
+    expect(created.body.organisation).toMatchObject({ postalAddress: '4 Kiln Street\nMarlow Cross MC2 5OL', email: 'goods@orrin.example', phone: null });
+
+    const phoned = await send(admin, 'patch', `/api/organisations/${id}`, { name, phone: '+00 555 0160' });
+    expect(phoned.status).toBe(200);
+    expect(phoned.body.organisation).toMatchObject({ postalAddress: '4 Kiln Street\nMarlow Cross MC2 5OL', email: 'goods@orrin.example', phone: '+00 555 0160' });
+    const cleared = await send(admin, 'patch', `/api/organisations/${id}`, { name, email: '', postalAddress: '' });
+    expect(cleared.body.organisation).toMatchObject({ postalAddress: '', email: null, phone: '+00 555 0160' });
+
+    const events = await auditEventsAbout(testApp.deps, 'organisation', id);
+    const changes = events.filter((event) => event.action === 'organisation.details-changed').map((event) => event.details);
+    expect(changes).toEqual([
+      { fields: ['phone'], before: { phone: null }, after: { phone: '+00 555 0160' } },
+      {
+        fields: ['postalAddress', 'email'],
+        before: { postalAddress: '4 Kiln Street\nMarlow Cross MC2 5OL', email: 'goods@orrin.example' },
+        after: { postalAddress: '', email: null },
+      },
+    ]);
+  });
+
+  it('refuses an address of more than five lines or with a line over 120 characters, and a malformed e-mail, with 400 naming the field, changing nothing', async () => {
+    const organisation = await createTestOrganisation(testApp.deps, { kind: 'client' });
+    const tooMany = await send(admin, 'patch', `/api/organisations/${organisation.id}`, { name: organisation.name, postalAddress: 'a\nb\nc\nd\ne\nf' });
+    expect(tooMany.status).toBe(400);
+    expect(tooMany.body.error.fields.postalAddress).toBe('Field "postalAddress" must have at most 5 lines.');
+    const tooLong = await send(admin, 'patch', `/api/organisations/${organisation.id}`, { name: organisation.name, postalAddress: 'x'.repeat(121) });
+    expect(tooLong.body.error.fields.postalAddress).toBe('Each line of field "postalAddress" must be at most 120 characters long.');
+    const badEmail = await send(admin, 'patch', `/api/organisations/${organisation.id}`, { name: organisation.name, email: 'not an address' });
+    expect(badEmail.status).toBe(400);
+    expect(badEmail.body.error.fields.email).toBe('Field "email" must be an e-mail address like name@lab.example.');
+    const detail = await admin.agent.get(`/api/organisations/${organisation.id}`);
+    expect(detail.body.organisation).toMatchObject({ postalAddress: '', email: null, phone: null });
+  });
+
   it('keeps the plain organisation list unchanged for the bench (no counts unless asked)', async () => {
     const technician = await signedInWithRoles(testApp, ['technician']);
     const response = await technician.agent.get('/api/organisations');

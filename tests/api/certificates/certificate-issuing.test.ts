@@ -32,6 +32,9 @@ let first: { id: string; number: string; revision: number; sha256: string; verif
 let firstPdf: Buffer;
 let pages: string[];
 let flow: string;
+let lab: { id: string; name: string };
+let refusedWithoutAddress: { status: number; body: { error?: { message?: string } } };
+let certificateRowsAfterRefusal: number;
 const folder = '/tmp/shots/review';
 
 function post(session: SignedInSession, url: string, body: object = {}) {
@@ -65,9 +68,11 @@ beforeAll(async () => {
     email: `maren-${uniqueSuffix()}@bright-optics.example`,
     position: 'Quality manager',
   });
-  technician = await signedInWithRoles(testApp, ['technician']);
-  reviewer = await signedInWithRoles(testApp, ['reviewer']);
-  admin = await signedInWithRoles(testApp, ['admin']);
+  // The approver's own lab, with no address recorded yet: the first issue is refused until an admin enters it.
+  lab = await createTestOrganisation(testApp.deps, { kind: 'lab', postalAddress: '' });
+  technician = await signedInWithRoles(testApp, ['technician'], { organisationId: lab.id });
+  reviewer = await signedInWithRoles(testApp, ['reviewer'], { organisationId: lab.id });
+  admin = await signedInWithRoles(testApp, ['admin'], { organisationId: lab.id });
   ownClient = await signedInWithRoles(testApp, ['client'], { organisationId: bench.organisation.id });
   otherClient = await signedInWithRoles(testApp, ['client'], { organisationId: (await createTestOrganisation(testApp.deps, { kind: 'client' })).id });
 
@@ -76,6 +81,11 @@ beforeAll(async () => {
   measurementNumber = staged.number;
   expect((await post(technician, `/api/measurements/${measurementId}/submission`)).status).toBe(200);
   expect((await post(reviewer, `/api/measurements/${measurementId}/approval`)).status).toBe(200);
+  refusedWithoutAddress = await post(admin, `/api/measurements/${measurementId}/certificates`);
+  certificateRowsAfterRefusal = (await testApp.deps.db.select().from(certificates).where(eq(certificates.measurementId, measurementId))).length;
+  const patch = (id: string, body: object) => admin.agent.patch(`/api/organisations/${id}`).set(CSRF_HEADER_NAME, admin.csrfToken).send(body);
+  expect((await patch(lab.id, { name: lab.name, postalAddress: ' 12 Ravelin Yard \n\nOstmoor OS4 7RY, Examplia', email: 'Certs@Ravelin.example', phone: '+00 555 0142' })).status).toBe(200);
+  expect((await patch(bench.organisation.id, { name: bench.organisation.name, postalAddress: 'Receiving dock 2\nBrightwater BW9 1CL, Examplia' })).status).toBe(200);
   const issued = await post(admin, `/api/measurements/${measurementId}/certificates`);
   expect(issued.status, JSON.stringify(issued.body)).toBe(201);
   first = issued.body.certificate;
@@ -91,6 +101,25 @@ afterAll(async () => {
 });
 
 describe('POST /api/measurements/:id/certificates', () => {
+  it('refuses to issue while the issuing lab has no address recorded, saying where to enter it, and writes nothing', () => {
+    expect(refusedWithoutAddress.status).toBe(409);
+    expect(refusedWithoutAddress.body.error?.message).toBe(
+      `A certificate must state the laboratory’s address (ISO/IEC 17025 §7.8.2.1), and ${lab.name} has none recorded; an administrator can enter it under Administration → Organisations, then issue again.`,
+    );
+    expect(certificateRowsAfterRefusal).toBe(0);
+  });
+
+  it('prints the lab’s address, e-mail and phone and the client’s postal address as entered under Organisations (lines trimmed, blank ones dropped)', () => {
+    expect(flow).toContain('12 Ravelin Yard');
+    expect(flow).toContain('Ostmoor OS4 7RY, Examplia');
+    expect(flow).toContain('certs@ravelin.example');
+    expect(flow).toContain('+00 555 0142');
+    expect(flow).toContain('Receiving dock 2');
+    expect(flow).toContain('Brightwater BW9 1CL, Examplia');
+    // The contact who receives certificates still follows the client's address.
+    expect(flow).toContain('Maren Ostrowe, Quality manager');
+  });
+
   it('issues revision 1 numbered C-YYYY-NNNN, stores the PDF with its SHA-256, and certifies the measurement', async () => {
     expect(first.number).toMatch(/^C-\d{4}-\d{4,}$/);
     expect(first.revision).toBe(1);

@@ -19,7 +19,7 @@ import { todayIsoDate } from '../../../server/services/equipment';
 import { cachedBenchMeasurement, type CachedBenchMeasurement } from '../../../scripts/synth/cached-bench-measurement';
 import { smallFiniteConjugate } from '../analysis/small-bench';
 import { createTestBench, createTestLens, createTestWorkOrder, type TestBench } from '../measurements/bench-records';
-import { uniqueSuffix } from '../../helpers/people';
+import { uniqueSuffix, createTestOrganisation } from '../../helpers/people';
 import type { TestApp } from '../../helpers/test-app';
 
 export interface ReviewBench {
@@ -35,6 +35,8 @@ export interface ReviewBench {
 
 export async function createReviewBench(testApp: TestApp): Promise<ReviewBench> {
   const fixture = await cachedBenchMeasurement('finite-conjugate', (s) => smallFiniteConjugate(s));
+  // The issuing lab: certificates print its address (a test lab gets an invented one).
+  await createTestOrganisation(testApp.deps, { kind: 'lab' });
   const { workOrder, organisation } = await createTestWorkOrder(testApp.deps);
   const lens = await createTestLens(testApp.deps, workOrder.id, { nominalFocalLengthMm: Math.round(fixture.truth.focalLengthMm), tolerancePercent: 2 });
   const equipment = await createTestBench(testApp.deps);

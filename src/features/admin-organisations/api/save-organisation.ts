@@ -1,13 +1,20 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { OrganisationDetail } from '@shared/schemas/admin';
-import { adminOrganisationsQueryKey } from '@/features/admin-organisations/api/get-organisations';
 
-/** Creates a client organisation (no id) or renames one. */
-export async function saveOrganisation({ organisationId, name }: { organisationId: string | null; name: string }): Promise<OrganisationDetail> {
+export interface OrganisationFields {
+  name: string;
+  /** One line per line; left out: unchanged. */
+  postalAddress?: string;
+  email?: string | null;
+  phone?: string | null;
+}
+
+/** Creates a client organisation (no id) or changes one's name, address, e-mail and phone. */
+export async function saveOrganisation({ organisationId, ...fields }: { organisationId: string | null } & OrganisationFields): Promise<OrganisationDetail> {
   const body = organisationId
-    ? await api.patch<{ organisation: OrganisationDetail }>(`/api/organisations/${encodeURIComponent(organisationId)}`, { name })
-    : await api.post<{ organisation: OrganisationDetail }>('/api/organisations', { name });
+    ? await api.patch<{ organisation: OrganisationDetail }>(`/api/organisations/${encodeURIComponent(organisationId)}`, fields)
+    : await api.post<{ organisation: OrganisationDetail }>('/api/organisations', fields);
   return body.organisation;
 }
 

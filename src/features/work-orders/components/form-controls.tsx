@@ -1,4 +1,4 @@
-import { useId, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
+import { useId, type ReactNode, type SelectHTMLAttributes } from 'react';
 import { FieldFrame, FieldProblem, fieldBorder, fieldDescribedBy } from '@/components/ui/field-frame';
 
 export interface SelectFieldProps extends Omit<SelectHTMLAttributes<HTMLSelectElement>, 'id'> {
@@ -22,27 +22,6 @@ export function SelectField({ label, error, hint, className = '', children, ...s
       >
         {children}
       </select>
-    </FieldFrame>
-  );
-}
-
-export interface TextAreaFieldProps extends Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, 'id'> {
-  label: string;
-  error?: string;
-  hint?: string;
-}
-
-export function TextAreaField({ label, error, hint, className = '', ...areaProps }: TextAreaFieldProps) {
-  const id = useId();
-  return (
-    <FieldFrame id={id} label={label} hint={hint} error={error} className={className}>
-      <textarea
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={fieldDescribedBy(id, hint, error)}
-        className={`min-h-20 rounded-sheet border bg-sheet px-3 py-2 text-body text-ink placeholder:text-ink-faint/70 ${fieldBorder(error)}`}
-        {...areaProps}
-      />
     </FieldFrame>
   );
 }

@@ -6,7 +6,8 @@ import { useClientOrganisations } from '@/features/work-orders/api/get-client-or
 import { useCreateWorkOrder } from '@/features/work-orders/api/create-work-order';
 import type { WorkOrderDetail } from '@shared/schemas/work-orders';
 import { DECISION_RULE_CHOICES } from '@/features/work-orders/components/decision-rule-words';
-import { ChoiceField, SelectField, TextAreaField } from '@/features/work-orders/components/form-controls';
+import { TextAreaField } from '@/components/ui/text-area-field';
+import { ChoiceField, SelectField } from '@/features/work-orders/components/form-controls';
 import { splitServerProblems } from '@/lib/server-problems';
 import { createWorkOrderRequest, EMPTY_WORK_ORDER_DRAFT, type FieldProblems, type WorkOrderDraft } from '@/features/work-orders/lib/work-order-request';
 
