@@ -7,7 +7,6 @@ import {
   GetObjectCommand,
   HeadBucketCommand,
   HeadObjectCommand,
-  ListObjectsV2Command,
   PutObjectCommand,
   S3Client,
   S3ServiceException,
@@ -155,18 +154,22 @@ export function createObjectStorage(settings: ObjectStorageSettings): ObjectStor
     }
   }
 
-  async function listObjectsOnce(prefix: string): Promise<StoredObjectInfo[]> {
-    const found: StoredObjectInfo[] = [];
-    let continuationToken: string | undefined;
-    do {
-      const page = await client.send(new ListObjectsV2Command({ Bucket: bucket, Prefix: prefix, ContinuationToken: continuationToken }));
+  async function* objectPages(prefix: string): AsyncGenerator<StoredObjectInfo[]> {
+    // ListObjects (v1) with Marker = the last key seen, not v2's continuation token:
+    // s3rver 3.7 makes its v2 tokens with DES, which OpenSSL 3 (Node 18+) lacks, so
+    // every truncated v2 listing there fails with InternalError. Real S3 serves both.
+    let marker: string | undefined;
+    for (;;) {
+      const page = await reachable(() => client.send(new ListObjectsCommand({ Bucket: bucket, Prefix: prefix || undefined, Marker: marker })));
+      const items: StoredObjectInfo[] = [];
       for (const item of page.Contents ?? []) {
         if (!item.Key) continue;
-        found.push({ key: item.Key, sizeBytes: item.Size ?? 0, lastModified: item.LastModified ?? null, etag: item.ETag });
+        items.push({ key: item.Key, sizeBytes: item.Size ?? 0, lastModified: item.LastModified ?? null, etag: item.ETag });
       }
-      continuationToken = page.IsTruncated ? page.NextContinuationToken : undefined;
-    } while (continuationToken);
-    return found;
+      if (items.length > 0) yield items;
+      if (!page.IsTruncated || items.length === 0) return;
+      marker = page.NextMarker ?? items[items.length - 1].key;
+    }
   }
 
   return {
@@ -210,27 +213,13 @@ export function createObjectStorage(settings: ObjectStorageSettings): ObjectStor
       return reachable(() => headObjectOnce(key));
     },
 
-    listObjects(prefix) {
-      return reachable(() => listObjectsOnce(prefix));
+    async listObjects(prefix) {
+      const found: StoredObjectInfo[] = [];
+      for await (const page of objectPages(prefix)) found.push(...page);
+      return found;
     },
 
-    async *listObjectPages(prefix) {
-      // ListObjects (v1) with Marker = the last key seen, not v2's continuation token:
-      // s3rver 3.7 makes its v2 tokens with DES, which OpenSSL 3 (Node 18+) lacks, so
-      // every truncated v2 listing there fails with InternalError. Real S3 serves both.
-      let marker: string | undefined;
-      for (;;) {
-        const page = await reachable(() => client.send(new ListObjectsCommand({ Bucket: bucket, Prefix: prefix || undefined, Marker: marker })));
-        const items: StoredObjectInfo[] = [];
-        for (const item of page.Contents ?? []) {
-          if (!item.Key) continue;
-          items.push({ key: item.Key, sizeBytes: item.Size ?? 0, lastModified: item.LastModified ?? null, etag: item.ETag });
-        }
-        if (items.length > 0) yield items;
-        if (!page.IsTruncated || items.length === 0) return;
-        marker = page.NextMarker ?? items[items.length - 1].key;
-      }
-    },
+    listObjectPages: objectPages,
 
     async deleteObjects(keys) {
       const outcome: DeleteObjectsOutcome = { deleted: [], failed: [] };
