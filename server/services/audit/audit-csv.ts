@@ -15,15 +15,19 @@ export function csvCell(value: string | number | null | undefined): string {
 
 export const AUDIT_CSV_HEADER = ['time_utc', 'actor_name', 'actor_email', 'action', 'subject_type', 'subject_id', 'details', 'ip'];
 
-/** The audit rows as CSV text with CRLF line ends (RFC 4180). */
-export function auditEventsToCsv(rows: readonly AuditEventRow[]): string {
-  const lines = [AUDIT_CSV_HEADER.join(',')];
+/** The header line, CRLF-terminated (RFC 4180). */
+export const AUDIT_CSV_HEADER_LINE = `${AUDIT_CSV_HEADER.join(',')}\r\n`;
+
+/** The audit rows as CSV lines, each CRLF-terminated (RFC 4180), without the header. */
+export function auditRowsToCsvLines(rows: readonly AuditEventRow[]): string {
+  let text = '';
   for (const row of rows) {
-    lines.push(
-      [row.at, row.actor?.name, row.actor?.email, row.action, row.subjectType, row.subjectId, JSON.stringify(row.details), row.ip]
-        .map(csvCell)
-        .join(','),
-    );
+    text += `${[row.at, row.actor?.name, row.actor?.email, row.action, row.subjectType, row.subjectId, JSON.stringify(row.details), row.ip].map(csvCell).join(',')}\r\n`;
   }
-  return `${lines.join('\r\n')}\r\n`;
+  return text;
+}
+
+/** The audit rows as CSV text with a header and CRLF line ends (RFC 4180). */
+export function auditEventsToCsv(rows: readonly AuditEventRow[]): string {
+  return AUDIT_CSV_HEADER_LINE + auditRowsToCsvLines(rows);
 }

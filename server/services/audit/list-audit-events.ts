@@ -1,4 +1,4 @@
-import { count, desc, eq } from 'drizzle-orm';
+import { and, count, desc, eq, lte, max, sql } from 'drizzle-orm';
 import type { Database } from '../../db/client';
 import { auditEvents, people } from '../../db/schema';
 import type { AuditEventRow, AuditEventsPage, AuditFilter, ListAuditEventsQuery } from '../../../shared/schemas/admin';
@@ -47,16 +47,37 @@ export async function listAuditEvents(db: Database, query: ListAuditEventsQuery)
   return { items: rows.map(toAuditRow), total, page: query.page, pageSize: query.pageSize };
 }
 
-export const AUDIT_EXPORT_MAX_ROWS = 100_000;
+/** Rows read from PostgreSQL per step of an export. */
+export const AUDIT_EXPORT_BATCH_ROWS = 2_000;
 
-/** Every event matching the filter, newest first (capped), for the CSV export. */
-export async function selectAuditEventsForExport(db: Database, filter: AuditFilter): Promise<AuditEventRow[]> {
-  const rows = await db
-    .select(columns)
-    .from(auditEvents)
-    .leftJoin(people, eq(people.id, auditEvents.actorId))
-    .where(auditWhere(filter))
-    .orderBy(desc(auditEvents.at), desc(auditEvents.id))
-    .limit(AUDIT_EXPORT_MAX_ROWS);
-  return rows.map(toAuditRow);
+/**
+ * Every event matching the filter, newest first, in batches (keyset paging
+ * on time and id, so each step is an index range, not an offset), for the
+ * streamed CSV export. Only events recorded before the export began are
+ * read, so an export never contains its own event nor grows while it runs.
+ */
+export async function* auditEventBatchesForExport(db: Database, filter: AuditFilter, batchRows = AUDIT_EXPORT_BATCH_ROWS): AsyncGenerator<AuditEventRow[]> {
+  const [{ upTo }] = await db.select({ upTo: max(auditEvents.id) }).from(auditEvents);
+  if (upTo === null) return;
+  // The time as PostgreSQL's text: a JavaScript Date would drop its microseconds and page wrongly.
+  let after: { at: string; id: number } | null = null;
+  for (;;) {
+    const rows: (Row & { atKey: string })[] = await db
+      .select({ ...columns, atKey: sql<string>`${auditEvents.at}::text` })
+      .from(auditEvents)
+      .leftJoin(people, eq(people.id, auditEvents.actorId))
+      .where(
+        and(
+          auditWhere(filter),
+          lte(auditEvents.id, upTo),
+          after ? sql`(${auditEvents.at}, ${auditEvents.id}) < (${after.at}::timestamptz, ${after.id})` : undefined,
+        ),
+      )
+      .orderBy(desc(auditEvents.at), desc(auditEvents.id))
+      .limit(batchRows);
+    if (rows.length > 0) yield rows.map(toAuditRow);
+    if (rows.length < batchRows) return;
+    const last = rows[rows.length - 1];
+    after = { at: last.atKey, id: last.id };
+  }
 }

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { recordAuditEvent } from '../../../server/services/audit-log';
 import { auditEventsToCsv, csvCell } from '../../../server/services/audit/audit-csv';
+import { auditEventBatchesForExport } from '../../../server/services/audit/list-audit-events';
 import { signInAs, signedInWithRoles, startBrowserSession, type SignedInSession } from '../../helpers/browser-session';
 import { createTestPerson, uniqueSuffix } from '../../helpers/people';
 import { createTestApp, type TestApp } from '../../helpers/test-app';
@@ -109,3 +110,27 @@ describe('GET /api/audit-events/export', () => {
     expect(exported.body.items[0].details).toMatchObject({ filter: { subjectId }, rows: 2 });
   });
 });
+
+describe('auditEventBatchesForExport', () => {
+  it('pages newest first by time then id, ties within one transaction’s microsecond included, every event once, none recorded after it began', async () => {
+    const subjectId = `batches-${uniqueSuffix()}`;
+    // Three events in one transaction share now(), so paging must break the tie by id.
+    await testApp.deps.db.transaction(async (tx) => {
+      for (let i = 0; i < 3; i++) await recordAuditEvent(tx, { actorId: null, action: `tie.${i}`, subjectType: 'lens', subjectId });
+    });
+    for (let i = 0; i < 4; i++) await recordAuditEvent(testApp.deps.db, { actorId: null, action: `single.${i}`, subjectType: 'lens', subjectId });
+    const batches = auditEventBatchesForExport(testApp.deps.db, { subjectId }, 3);
+    const first = await batches.next();
+    // Recorded after the export began: not exported.
+    await recordAuditEvent(testApp.deps.db, { actorId: null, action: 'late', subjectType: 'lens', subjectId });
+    const sizes = [first.value!.length];
+    const actions = first.value!.map((row) => row.action);
+    for await (const batch of batches) {
+      sizes.push(batch.length);
+      actions.push(...batch.map((row) => row.action));
+    }
+    expect(sizes).toEqual([3, 3, 1]);
+    expect(actions).toEqual(['single.3', 'single.2', 'single.1', 'single.0', 'tie.2', 'tie.1', 'tie.0']);
+  });
+});
+
