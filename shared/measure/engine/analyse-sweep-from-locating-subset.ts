@@ -204,10 +204,9 @@ export async function analyseSweepFromLocatingSubset(
   // No frame's blur may be wider than the widest locating frame's (by more than one reduced pixel, the
   // extent's own step); otherwise the region size is not vouched for and the sweep is done the sure way.
   const locatingInRegions = regionExtents.filter(({ index }) => located[index]?.detection);
-  if (locatingInRegions.length > 0) {
-    const widestLocating = widestOf(locatingInRegions.map((e) => e.extent));
-    const tooWide = regionExtents.find((e) => wider(e.extent, widestLocating));
-    if (tooWide) throw new RegionTooSmallForSweep(frames[tooWide.index].file);
-  }
+  // With no locating frame measured in its region nothing vouches for the size (the widest is then −∞ on both axes).
+  const widestLocating = widestOf(locatingInRegions.map((e) => e.extent));
+  const tooWide = regionExtents.find((e) => wider(e.extent, widestLocating));
+  if (tooWide) throw new RegionTooSmallForSweep(frames[tooWide.index].file);
   return { frames: results, polarity, regionSize };
 }
