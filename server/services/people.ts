@@ -23,19 +23,28 @@ export function normaliseEmail(email: string): string {
 /** A person's roles as a sorted text array (empty when none). */
 export const rolesOfPerson = sql<Role[]>`coalesce((select array_agg(pr.role::text order by pr.role) from person_roles pr where pr.person_id = ${people.id}), '{}'::text[])`;
 
+/** Columns every person listing selects, from `people` left-joined to `organisations`. */
+export const personColumns = {
+  id: people.id,
+  email: people.email,
+  name: people.name,
+  active: people.active,
+  roles: rolesOfPerson,
+  organisationId: organisations.id,
+  organisationName: organisations.name,
+  organisationKind: organisations.kind,
+};
+
+/** The person's organisation from those columns; null for a person of none. */
+export function organisationOfRow(row: { organisationId: string | null; organisationName: string | null; organisationKind: OrganisationKind | null }) {
+  return row.organisationId && row.organisationName && row.organisationKind
+    ? { id: row.organisationId, name: row.organisationName, kind: row.organisationKind }
+    : null;
+}
+
 async function selectPeople(db: Database, where: SQL): Promise<PersonWithCredentials[]> {
   const rows = await db
-    .select({
-      id: people.id,
-      email: people.email,
-      name: people.name,
-      active: people.active,
-      passwordHash: people.passwordHash,
-      roles: rolesOfPerson,
-      organisationId: organisations.id,
-      organisationName: organisations.name,
-      organisationKind: organisations.kind,
-    })
+    .select({ ...personColumns, passwordHash: people.passwordHash })
     .from(people)
     .leftJoin(organisations, eq(organisations.id, people.organisationId))
     .where(where);
@@ -46,10 +55,7 @@ async function selectPeople(db: Database, where: SQL): Promise<PersonWithCredent
     active: row.active,
     passwordHash: row.passwordHash,
     roles: row.roles,
-    organisation:
-      row.organisationId && row.organisationName && row.organisationKind
-        ? { id: row.organisationId, name: row.organisationName, kind: row.organisationKind }
-        : null,
+    organisation: organisationOfRow(row),
   }));
 }
 

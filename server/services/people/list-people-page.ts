@@ -2,7 +2,7 @@ import { and, asc, count, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
 import type { Database } from '../../db/client';
 import { organisations, people } from '../../db/schema';
 import { containsPattern } from '../catalogue-queries';
-import { rolesOfPerson } from '../people';
+import { organisationOfRow, personColumns } from '../people';
 import type { AdminPersonSummary, ListPeopleQuery, PeoplePage } from '../../../shared/schemas/admin';
 
 /** People for the admin's table: search by name or e-mail, filter by role and active, one page at a time. */
@@ -20,17 +20,10 @@ export async function listPeoplePage(db: Database, query: ListPeopleQuery, optio
   const [{ total }] = await db.select({ total: count() }).from(people).where(where);
   const rows = await db
     .select({
-      id: people.id,
-      email: people.email,
-      name: people.name,
-      active: people.active,
+      ...personColumns,
       createdAt: people.createdAt,
       lastSignInAt: people.lastSignInAt,
       deactivatedAt: people.deactivatedAt,
-      roles: rolesOfPerson,
-      organisationId: organisations.id,
-      organisationName: organisations.name,
-      organisationKind: organisations.kind,
     })
     .from(people)
     .leftJoin(organisations, eq(organisations.id, people.organisationId))
@@ -44,10 +37,7 @@ export async function listPeoplePage(db: Database, query: ListPeopleQuery, optio
     email: row.email,
     name: row.name,
     roles: row.roles,
-    organisation:
-      row.organisationId && row.organisationName && row.organisationKind
-        ? { id: row.organisationId, name: row.organisationName, kind: row.organisationKind }
-        : null,
+    organisation: organisationOfRow(row),
     active: row.active,
     createdAt: row.createdAt.toISOString(),
     lastSignInAt: row.lastSignInAt?.toISOString() ?? null,

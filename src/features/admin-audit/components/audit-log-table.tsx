@@ -1,4 +1,5 @@
-import { useEffect, useId, useState, type FormEvent } from 'react';
+import { useEffect, useState, type FormEvent } from 'react';
+import { FILTER_CONTROL_CLASS, FilterField } from '@/components/ui/filter-field';
 import { Button } from '@/components/ui/button';
 import { DataTable, type DataTableColumn } from '@/components/ui/data-table';
 import { LoadingNote } from '@/components/ui/loading-note';
@@ -76,47 +77,45 @@ export function AuditLogTable({ filters, page, onChange }: AuditLogTableProps) {
   // eslint-disable-next-line react-hooks/exhaustive-deps -- the filters arrive as a new object on every render; their content is the dependency.
   useEffect(() => setDraft(filters), [filtersKey]);
   const events = useAuditEvents(filters, page, PAGE_SIZE);
-  const ids = { actor: useId(), action: useId(), subjectType: useId(), from: useId(), to: useId() };
 
   function apply(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
     onChange(draft, 1);
   }
-  const field = 'h-8 rounded-sheet border border-rule-strong bg-sheet px-2 text-small';
+  const field = FILTER_CONTROL_CLASS;
 
   return (
     <div className="space-y-3">
       <form onSubmit={apply} className="flex flex-wrap items-end gap-3 rounded-sheet border border-rule bg-sheet px-3 py-3" aria-label="Filter the audit log">
-        <div className="flex flex-col gap-1">
-          <label htmlFor={ids.actor} className="text-small text-ink-soft">Who</label>
-          <input id={ids.actor} type="search" className={`${field} w-48`} placeholder="name or e-mail" value={draft.actor} onChange={(e) => setDraft({ ...draft, actor: e.target.value })} />
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor={ids.action} className="text-small text-ink-soft">Did</label>
-          <select id={ids.action} className={field} value={draft.action} onChange={(e) => setDraft({ ...draft, action: e.target.value })}>
-            {ACTION_CHOICES.map(([value, label]) => (
-              <option key={value} value={value}>{label}</option>
-            ))}
-            {ACTION_CHOICES.some(([value]) => value === draft.action) ? null : <option value={draft.action}>{draft.action}</option>}
-          </select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor={ids.subjectType} className="text-small text-ink-soft">To a</label>
-          <select id={ids.subjectType} className={field} value={draft.subjectType} onChange={(e) => setDraft({ ...draft, subjectType: e.target.value, subjectId: '' })}>
-            <option value="">Any record</option>
-            {['person', 'invitation', 'organisation', 'work-order', 'measurement', 'certificate', 'outbound-mail'].map((type) => (
-              <option key={type} value={type}>{type}</option>
-            ))}
-          </select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor={ids.from} className="text-small text-ink-soft">From (UTC day)</label>
-          <input id={ids.from} type="date" className={`${field} numerals`} value={draft.from} onChange={(e) => setDraft({ ...draft, from: e.target.value })} />
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor={ids.to} className="text-small text-ink-soft">To (UTC day)</label>
-          <input id={ids.to} type="date" className={`${field} numerals`} value={draft.to} onChange={(e) => setDraft({ ...draft, to: e.target.value })} />
-        </div>
+        <FilterField label="Who">
+          {(id) => <input id={id} type="search" className={`${field} w-48`} placeholder="name or e-mail" value={draft.actor} onChange={(e) => setDraft({ ...draft, actor: e.target.value })} />}
+        </FilterField>
+        <FilterField label="Did">
+          {(id) => (
+            <select id={id} className={field} value={draft.action} onChange={(e) => setDraft({ ...draft, action: e.target.value })}>
+              {ACTION_CHOICES.map(([value, label]) => (
+                <option key={value} value={value}>{label}</option>
+              ))}
+              {ACTION_CHOICES.some(([value]) => value === draft.action) ? null : <option value={draft.action}>{draft.action}</option>}
+            </select>
+          )}
+        </FilterField>
+        <FilterField label="To a">
+          {(id) => (
+            <select id={id} className={field} value={draft.subjectType} onChange={(e) => setDraft({ ...draft, subjectType: e.target.value, subjectId: '' })}>
+              <option value="">Any record</option>
+              {['person', 'invitation', 'organisation', 'work-order', 'measurement', 'certificate', 'outbound-mail'].map((type) => (
+                <option key={type} value={type}>{type}</option>
+              ))}
+            </select>
+          )}
+        </FilterField>
+        <FilterField label="From (UTC day)">
+          {(id) => <input id={id} type="date" className={`${field} numerals`} value={draft.from} onChange={(e) => setDraft({ ...draft, from: e.target.value })} />}
+        </FilterField>
+        <FilterField label="To (UTC day)">
+          {(id) => <input id={id} type="date" className={`${field} numerals`} value={draft.to} onChange={(e) => setDraft({ ...draft, to: e.target.value })} />}
+        </FilterField>
         <div className="flex items-center gap-2">
           <Button type="submit" size="sm">Apply</Button>
           <Button variant="quiet" size="sm" onClick={() => onChange(EMPTY_AUDIT_FILTERS, 1)}>Clear</Button>

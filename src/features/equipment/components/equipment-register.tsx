@@ -1,4 +1,5 @@
 import { useId, useState } from 'react';
+import { FILTER_CONTROL_CLASS } from '@/components/ui/filter-field';
 import { Button } from '@/components/ui/button';
 import { LoadingNote } from '@/components/ui/loading-note';
 import { ProblemNote } from '@/components/ui/problem-note';
@@ -117,7 +118,7 @@ export function EquipmentRegister({ canAdminister, todayIsoDate }: EquipmentRegi
                 value={query}
                 onChange={(event) => setQuery(event.target.value)}
                 placeholder="identifier, serial, certificate…"
-                className="h-8 w-64 rounded-sheet border border-rule-strong bg-sheet px-2 text-small"
+                className={`${FILTER_CONTROL_CLASS} w-64`}
               />
             </div>
             <label htmlFor={retiredId} className="flex items-center gap-2 text-small text-ink-soft">

@@ -1,4 +1,5 @@
-import { useId, useState } from 'react';
+import { useState } from 'react';
+import { FILTER_CONTROL_CLASS, FilterField } from '@/components/ui/filter-field';
 import { Button } from '@/components/ui/button';
 import { DataTable, type DataTableColumn } from '@/components/ui/data-table';
 import { LoadingNote } from '@/components/ui/loading-note';
@@ -96,9 +97,6 @@ export function PeopleDirectory() {
   const [notice, setNotice] = useState<Notice>(null);
   const people = usePeople(filters);
   const changeRoles = useChangePersonRoles();
-  const searchId = useId();
-  const roleId = useId();
-  const activeId = useId();
 
   const update = (patch: Partial<PeopleFilters>) => setFilters((current) => ({ ...current, page: 1, ...patch }));
 
@@ -156,52 +154,39 @@ export function PeopleDirectory() {
   return (
     <div className="space-y-3">
       <div className="flex flex-wrap items-end gap-3">
-        <div className="flex flex-col gap-1">
-          <label htmlFor={searchId} className="text-small text-ink-soft">
-            Find
-          </label>
-          <input
-            id={searchId}
-            type="search"
-            value={filters.q}
-            onChange={(event) => update({ q: event.target.value })}
-            placeholder="name or e-mail"
-            className="h-8 w-64 rounded-sheet border border-rule-strong bg-sheet px-2 text-small"
-          />
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor={roleId} className="text-small text-ink-soft">
-            Role
-          </label>
-          <select
-            id={roleId}
-            value={filters.role}
-            onChange={(event) => update({ role: event.target.value as PeopleFilters['role'] })}
-            className="h-8 rounded-sheet border border-rule-strong bg-sheet px-2 text-small"
-          >
-            <option value="">Any role</option>
-            {personRoles.map((role) => (
-              <option key={role} value={role}>
-                {ROLE_LABELS[role]}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor={activeId} className="text-small text-ink-soft">
-            Status
-          </label>
-          <select
-            id={activeId}
-            value={filters.active}
-            onChange={(event) => update({ active: event.target.value as PeopleFilters['active'] })}
-            className="h-8 rounded-sheet border border-rule-strong bg-sheet px-2 text-small"
-          >
-            <option value="">Active and deactivated</option>
-            <option value="true">Active only</option>
-            <option value="false">Deactivated only</option>
-          </select>
-        </div>
+        <FilterField label="Find">
+          {(id) => (
+            <input
+              id={id}
+              type="search"
+              value={filters.q}
+              onChange={(event) => update({ q: event.target.value })}
+              placeholder="name or e-mail"
+              className={`${FILTER_CONTROL_CLASS} w-64`}
+            />
+          )}
+        </FilterField>
+        <FilterField label="Role">
+          {(id) => (
+            <select id={id} value={filters.role} onChange={(event) => update({ role: event.target.value as PeopleFilters['role'] })} className={FILTER_CONTROL_CLASS}>
+              <option value="">Any role</option>
+              {personRoles.map((role) => (
+                <option key={role} value={role}>
+                  {ROLE_LABELS[role]}
+                </option>
+              ))}
+            </select>
+          )}
+        </FilterField>
+        <FilterField label="Status">
+          {(id) => (
+            <select id={id} value={filters.active} onChange={(event) => update({ active: event.target.value as PeopleFilters['active'] })} className={FILTER_CONTROL_CLASS}>
+              <option value="">Active and deactivated</option>
+              <option value="true">Active only</option>
+              <option value="false">Deactivated only</option>
+            </select>
+          )}
+        </FilterField>
       </div>
 
       <div role="status" aria-live="polite" className="text-small">
